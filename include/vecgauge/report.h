@@ -1,0 +1,95 @@
+/* report.h - writing a run directory: scores.csv, summary.md and friends.
+ * Part of vecgauge; MIT licence, see LICENSE.
+ *
+ * Writers take a vg_results and a FILE opened by the caller; the run
+ * directory functions make the set of files appear all at once: they are
+ * written into a temporary directory beside the final one and renamed into
+ * place only when every file is complete.
+ */
+#ifndef VG_REPORT_H
+#define VG_REPORT_H
+
+#include <stdio.h>
+#include <stddef.h>
+#include <stdint.h>
+
+#include "error.h"
+#include "results.h"
+#include "vg_config.h"
+
+#ifdef __cplusplus
+extern "C" {
+#endif
+
+/* Where the numbers came from, for summary.md and run.json. Every field is
+ * borrowed and may be NULL (left out of the output). */
+typedef struct vg_provenance {
+    const char *tool_version;  /* vg_version() */
+    const char *git_describe;  /* when built from a checkout */
+    const char *utc_time;      /* ISO 8601, e.g. 2026-12-02T10:00:00Z */
+    const char *command_line;  /* the exact command line, shell-quoted */
+} vg_provenance;
+
+/* The header line of scores.csv, without the newline. */
+VG_API const char *vg_report_scores_header(void);
+
+/* Write scores.csv (through libcsv): the header, then one line per row of
+ * r in order. Numbers are printed so that they read back to the same
+ * double (%.17g). Returns VG_EIO with path if writing fails. */
+VG_API vg_status vg_report_scores_csv(const vg_results *r, FILE *fp,
+                                      const char *path, vg_error *err);
+
+/* Write summary.md: a table per task, coverage warnings, the options in
+ * effect and the provenance. prov may be NULL. */
+VG_API vg_status vg_report_summary_md(const vg_results *r, const vg_provenance *prov,
+                                      FILE *fp, const char *path, vg_error *err);
+
+/* Print the headline scores as an aligned plain-text table (stdout of
+ * `vecgauge score`). */
+VG_API vg_status vg_report_text_table(const vg_results *r, FILE *fp, vg_error *err);
+
+/* Write the distinct missing words of every set on every suite as CSV
+ * with the columns vectors,suite,word (missing.csv in a run directory). */
+VG_API vg_status vg_report_missing_words(const vg_results *r, FILE *fp,
+                                         const char *path, vg_error *err);
+
+/* A run directory being built. */
+typedef struct vg_rundir vg_rundir;
+
+/* Start building the run directory final_path: creates a fresh temporary
+ * directory beside it. Fails with VG_EIO if final_path already exists (a
+ * run directory is never overwritten) or the temporary cannot be made.
+ * On success *out owns the handle: finish with vg_rundir_commit or
+ * vg_rundir_abort. */
+VG_API vg_status vg_rundir_begin(const char *final_path, vg_rundir **out,
+                                 vg_error *err);
+
+/* The path of a file name inside the temporary directory (valid until the
+ * next call on rd). */
+VG_API const char *vg_rundir_file(vg_rundir *rd, const char *name);
+
+/* The temporary directory (for signal handlers that must remove it). */
+VG_API const char *vg_rundir_temp_path(const vg_rundir *rd);
+
+/* Rename the temporary directory to its final path and free rd. On
+ * failure the temporary directory is removed, rd is freed, and VG_EIO is
+ * returned. */
+VG_API vg_status vg_rundir_commit(vg_rundir *rd, vg_error *err);
+
+/* Remove the temporary directory and everything in it, and free rd. NULL
+ * does nothing. */
+VG_API void vg_rundir_abort(vg_rundir *rd);
+
+/* Open name inside rd for writing; *fp receives the stream. */
+VG_API vg_status vg_rundir_open(vg_rundir *rd, const char *name, FILE **fp,
+                                vg_error *err);
+
+/* Flush and close fp, reporting a write error (disk full, ...) against
+ * path. Always closes. */
+VG_API vg_status vg_report_close(FILE *fp, const char *path, vg_error *err);
+
+#ifdef __cplusplus
+}
+#endif
+
+#endif /* VG_REPORT_H */

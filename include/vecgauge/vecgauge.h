@@ -1,0 +1,49 @@
+/* vecgauge.h - the whole public API of libvecgauge.
+ * Part of vecgauge; MIT licence, see LICENSE.
+ *
+ * Include this one header. Anything not declared in include/vecgauge/ is
+ * not API and may change without notice.
+ *
+ * The data flows through the stages in this order, one header each:
+ *   vectors.h  load a vector set (or wrap an in-memory matrix)
+ *   suite.h    read a benchmark suite (word pairs or analogy questions)
+ *   score.h    per-item scores of one vector set on one suite
+ *   stats.h    correlations and intervals on plain arrays
+ *   results.h  evaluate sets on suites: the table of scores
+ *   report.h   write a run directory (CSV, Markdown, ...)
+ * error.h holds the status codes and the error record they all use.
+ *
+ * Threading: loaded vector sets, suites and results are immutable and may
+ * be read from any number of threads. Nothing in the library keeps global
+ * state except vg_init's one-time set-up.
+ */
+#ifndef VECGAUGE_H
+#define VECGAUGE_H
+
+#include "vg_config.h"
+#include "error.h"
+#include "vectors.h"
+#include "suite.h"
+#include "score.h"
+#include "stats.h"
+#include "results.h"
+#include "report.h"
+
+#ifdef __cplusplus
+extern "C" {
+#endif
+
+/* The library's version string, e.g. "0.1.0"; equals VG_VERSION_STRING
+ * of the header it was built with. */
+VG_API const char *vg_version(void);
+
+/* One-time set-up: turns GSL's abort-on-error handler off so that GSL
+ * reports errors as return codes. Safe to call more than once; every
+ * entry point that uses GSL calls it. */
+VG_API void vg_init(void);
+
+#ifdef __cplusplus
+}
+#endif
+
+#endif /* VECGAUGE_H */

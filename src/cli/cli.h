@@ -1,0 +1,58 @@
+/* cli.h - shared parts of the vecgauge command-line front end.
+ * Part of vecgauge; MIT licence, see LICENSE.
+ *
+ * The front end uses only the public API in include/vecgauge/ (plus these
+ * helpers), the way any other program would.
+ */
+#ifndef VG_CLI_H
+#define VG_CLI_H
+
+#include <stddef.h>
+#include <stdint.h>
+
+#include "vecgauge/vecgauge.h"
+
+/* Exit statuses, documented in the README and the man page. */
+enum {
+    VG_EXIT_OK = 0,      /* success */
+    VG_EXIT_FAIL = 1,    /* bad input, failed check, I/O error */
+    VG_EXIT_USAGE = 2    /* bad command line */
+};
+
+extern const char *vg_cli_progname;
+
+/* The whole command line, for provenance (set by main). */
+/* `git describe` of the checkout the tool was built from, or "". */
+extern const char *vg_cli_git_describe;
+extern int vg_cli_argc;
+extern char **vg_cli_argv;
+
+/* "vecgauge: <formatted error>" on stderr. */
+void vg_cli_error(const vg_error *err);
+
+/* "vecgauge: <message>" on stderr. */
+void vg_cli_fail(const char *fmt, ...) VG_PRINTF(1, 2);
+
+/* Print "vecgauge COMMAND: message" and a pointer to --help; returns
+ * VG_EXIT_USAGE. */
+int vg_cli_usage_error(const char *command, const char *fmt, ...) VG_PRINTF(2, 3);
+
+/* Parse a whole decimal number into *out within [min, max]. 0 on success. */
+int vg_cli_parse_u64(const char *s, uint64_t min, uint64_t max, uint64_t *out);
+int vg_cli_parse_double(const char *s, double min, double max, double *out);
+
+/* Split "LABEL=PATH" (or just PATH, labelled by its file name without
+ * extensions). The returned strings are new; the caller frees both. */
+int vg_cli_vector_spec(const char *spec, char **label, char **path);
+
+/* The command line re-quoted for a shell, in one new string. */
+char *vg_cli_command_line(int argc, char **argv);
+
+/* Current UTC time as ISO 8601 ("2026-12-02T10:00:00Z") and as a
+ * directory-friendly stamp ("20261202T100000Z"). */
+void vg_cli_utc_now(char iso[32], char stamp[32]);
+
+/* The commands. Each gets argv starting at the command name. */
+int vg_cmd_score(int argc, char **argv);
+
+#endif /* VG_CLI_H */

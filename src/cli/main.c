@@ -1,0 +1,85 @@
+/* main.c - the vecgauge command: dispatch to a command.
+ * Part of vecgauge; MIT licence, see LICENSE.
+ */
+#include <stdio.h>
+#include <string.h>
+
+#include "cli.h"
+
+typedef struct command {
+    const char *name;
+    int (*run)(int argc, char **argv);
+    const char *summary;
+} command;
+
+static int cmd_help(int argc, char **argv);
+
+static const command commands[] = {
+    {"score", vg_cmd_score, "score vector sets on suites and write a run directory"},
+    {"help", cmd_help, "show help for vecgauge or for one command"},
+};
+#define N_COMMANDS (sizeof commands / sizeof commands[0])
+
+static void main_help(FILE *fp) {
+    fprintf(fp,
+            "Usage: vecgauge COMMAND [OPTION]... [ARG]...\n"
+            "Measure how good word vectors are on human-rated word-pair and analogy\n"
+            "suites, with coverage, intervals and significance tests.\n"
+            "\n"
+            "Commands:\n");
+    for (size_t i = 0; i < N_COMMANDS; i++)
+        fprintf(fp, "  %-10s %s\n", commands[i].name, commands[i].summary);
+    fprintf(fp,
+            "\n"
+            "  vecgauge COMMAND --help   help for one command\n"
+            "  vecgauge --version        print the version\n"
+            "\n"
+            "Exit status: 0 success; 1 bad input or a failed check; 2 usage error.\n");
+}
+
+static const command *find(const char *name) {
+    for (size_t i = 0; i < N_COMMANDS; i++)
+        if (strcmp(commands[i].name, name) == 0) return &commands[i];
+    return NULL;
+}
+
+static int cmd_help(int argc, char **argv) {
+    if (argc < 2) {
+        main_help(stdout);
+        return VG_EXIT_OK;
+    }
+    const command *c = find(argv[1]);
+    if (!c || c->run == cmd_help) {
+        if (!c) return vg_cli_usage_error("help", "unknown command '%s'", argv[1]);
+        main_help(stdout);
+        return VG_EXIT_OK;
+    }
+    char help[] = "--help";
+    char *sub[] = {argv[1], help, NULL};
+    return c->run(2, sub);
+}
+
+int main(int argc, char **argv) {
+    vg_init();
+    vg_cli_argc = argc;
+    vg_cli_argv = argv;
+    if (argc < 2) {
+        main_help(stderr);
+        return VG_EXIT_USAGE;
+    }
+    if (strcmp(argv[1], "--version") == 0 || strcmp(argv[1], "-V") == 0) {
+        printf("vecgauge %s\n", vg_version());
+        return VG_EXIT_OK;
+    }
+    if (strcmp(argv[1], "--help") == 0 || strcmp(argv[1], "-h") == 0) {
+        main_help(stdout);
+        return VG_EXIT_OK;
+    }
+    const command *c = find(argv[1]);
+    if (!c) {
+        fprintf(stderr, "%s: unknown command '%s'\nTry '%s help'.\n", vg_cli_progname, argv[1],
+                vg_cli_progname);
+        return VG_EXIT_USAGE;
+    }
+    return c->run(argc - 1, argv + 1);
+}
