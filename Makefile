@@ -55,7 +55,8 @@ COMMON_O  = common/error.o common/alloc.o common/arena.o common/strmap.o \
 VECTORS_O = vectors/vectors.o vectors/load.o vectors/text.o
 SUITES_O  = suites/suite.o suites/fields.o suites/pairs.o suites/analogies.o
 SCORE_O   = score/similarity.o score/analogy.o
-STATS_O   = stats/rank.o stats/correlation.o stats/resample.o
+STATS_O   = stats/rank.o stats/correlation.o stats/resample.o \
+            stats/paired_correlation.o stats/paired_counts.o
 EVAL_O    = eval/results.o eval/evaluate.o eval/similarity_rows.o
 REPORT_O  = report/csvout.o report/summary_md.o report/rundir.o
 CLI_O     = cli/main.o cli/util.o cli/cmd_score.o
@@ -69,7 +70,7 @@ BIN   = $(BUILD)/vecgauge
 
 # ---- tests --------------------------------------------------------------
 UNIT_TESTS = $(patsubst tests/unit/%.c,$(BUILD)/tests/%,$(wildcard tests/unit/test_*.c))
-TEST_HELPERS = $(BUILD)/tests/inprocess_example $(BUILD)/tests/vgstat
+TEST_HELPERS = $(BUILD)/tests/inprocess_example $(BUILD)/tests/vgstat $(BUILD)/tests/vgpaired
 TEST_CFLAGS := $(shell $(PKG_CONFIG) --cflags cmocka 2>/dev/null)
 TEST_LIBS   := $(shell $(PKG_CONFIG) --libs cmocka 2>/dev/null)
 
@@ -112,7 +113,7 @@ $(BUILD)/tests/inprocess_example: scripts/inprocess_example.c $(LIB)
 	@mkdir -p $(@D)
 	$(CC) $(CPPFLAGS) $(CFLAGS) -o $@ $< $(LIB) $(LDFLAGS) $(LDLIBS)
 
-$(BUILD)/tests/vgstat: tests/tools/vgstat.c $(LIB)
+$(BUILD)/tests/vg%: tests/tools/vg%.c $(LIB)
 	@mkdir -p $(@D)
 	$(CC) $(CPPFLAGS) $(CFLAGS) -o $@ $< $(LIB) $(LDFLAGS) $(LDLIBS)
 

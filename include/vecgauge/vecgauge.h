@@ -28,6 +28,7 @@
 #include "stats.h"
 #include "results.h"
 #include "report.h"
+#include "paired.h"
 
 #ifdef __cplusplus
 extern "C" {
