@@ -7,6 +7,7 @@
 #   make bench         the benchmark script (scripts/bench)
 #   make install       PREFIX=/usr/local DESTDIR=
 #   make SANITIZE=1    build with AddressSanitizer and UBSan (build/san/)
+#   make fuzz          libFuzzer targets with clang (build/fuzz/); run: scripts/fuzz
 #   make WERROR=1      warnings are errors (CI)
 
 PREFIX  ?= /usr/local
@@ -14,7 +15,14 @@ DESTDIR ?=
 CC      ?= cc
 PKG_CONFIG ?= pkg-config
 
-ifeq ($(SANITIZE),1)
+ifeq ($(FUZZ),1)
+# libFuzzer build (clang): the library instrumented for coverage, targets
+# linked with -fsanitize=fuzzer by `make fuzz`.
+BUILD   ?= build/fuzz
+CC       = clang
+SANFLAGS = -fsanitize=fuzzer-no-link,address,undefined -fno-sanitize-recover=all -fno-omit-frame-pointer
+OPT     ?= -O1 -g
+else ifeq ($(SANITIZE),1)
 BUILD   ?= build/san
 SANFLAGS = -fsanitize=address,undefined -fno-sanitize-recover=all -fno-omit-frame-pointer
 OPT     ?= -O1 -g
@@ -74,15 +82,23 @@ TEST_HELPERS = $(BUILD)/tests/inprocess_example $(BUILD)/tests/vgstat $(BUILD)/t
 TEST_CFLAGS := $(shell $(PKG_CONFIG) --cflags cmocka 2>/dev/null)
 TEST_LIBS   := $(shell $(PKG_CONFIG) --libs cmocka 2>/dev/null)
 
+# ---- fuzzing ------------------------------------------------------------
+# Every fuzz/fuzz_NAME.c is a libFuzzer target; each is also linked with
+# fuzz/replay.c into a plain program that the test suite runs over the
+# saved corpus and regression inputs (tests/e2e/fuzz_replay.sh).
+FUZZ_TARGETS = $(patsubst fuzz/fuzz_%.c,%,$(wildcard fuzz/fuzz_*.c))
+FUZZ_REPLAY  = $(addprefix $(BUILD)/tests/fuzz_replay_,$(FUZZ_TARGETS))
+FUZZ_BINS    = $(addprefix build/fuzz/fuzz_,$(FUZZ_TARGETS))
+
 # ---- demo ---------------------------------------------------------------
 GEN_DEMO = $(BUILD)/gen-demo
 DEMO_DIR = $(BUILD)/demo
 
-.PHONY: all check check-fast demo bench install uninstall clean deps tests
+.PHONY: all check check-fast demo bench install uninstall clean deps tests fuzz fuzz-bins
 
 all: deps $(LIB) $(BIN) tests
 
-tests: $(UNIT_TESTS) $(TEST_HELPERS) $(GEN_DEMO)
+tests: $(UNIT_TESTS) $(TEST_HELPERS) $(GEN_DEMO) $(FUZZ_REPLAY)
 
 deps: $(BUILD)/.deps-ok
 $(BUILD)/.deps-ok: scripts/deps.list scripts/check-deps
@@ -116,6 +132,21 @@ $(BUILD)/tests/inprocess_example: scripts/inprocess_example.c $(LIB)
 $(BUILD)/tests/vg%: tests/tools/vg%.c $(LIB)
 	@mkdir -p $(@D)
 	$(CC) $(CPPFLAGS) $(CFLAGS) -o $@ $< $(LIB) $(LDFLAGS) $(LDLIBS)
+
+$(BUILD)/tests/fuzz_replay_%: fuzz/fuzz_%.c fuzz/replay.c fuzz/fuzz_input.h $(LIB)
+	@mkdir -p $(@D)
+	$(CC) $(CPPFLAGS) $(CFLAGS) -Wno-missing-prototypes -o $@ fuzz/fuzz_$*.c fuzz/replay.c $(LIB) \
+	    $(LDFLAGS) $(LDLIBS)
+
+# `make fuzz` builds the libFuzzer binaries; scripts/fuzz runs them.
+fuzz:
+	@$(MAKE) --no-print-directory FUZZ=1 fuzz-bins
+
+fuzz-bins: $(FUZZ_BINS)
+
+build/fuzz/fuzz_%: fuzz/fuzz_%.c fuzz/fuzz_input.h $(LIB)
+	$(CC) $(CPPFLAGS) $(CFLAGS) -Wno-missing-prototypes -fsanitize=fuzzer -o $@ $< $(LIB) \
+	    $(LDFLAGS) $(LDLIBS)
 
 $(GEN_DEMO): scripts/gen-demo.c
 	@mkdir -p $(@D)
