@@ -66,8 +66,10 @@ SCORE_O   = score/similarity.o score/analogy.o
 STATS_O   = stats/rank.o stats/correlation.o stats/resample.o \
             stats/paired_correlation.o stats/paired_counts.o
 EVAL_O    = eval/results.o eval/evaluate.o eval/similarity_rows.o
-REPORT_O  = report/csvout.o report/summary_md.o report/rundir.o
-CLI_O     = cli/main.o cli/util.o cli/cmd_score.o
+REPORT_O  = report/csvout.o report/summary_md.o report/rundir.o report/items_csv.o \
+            report/latex.o report/run_json.o report/run_record.o
+CLI_O     = cli/main.o cli/util.o cli/signals.o cli/run_output.o cli/cmd_score.o \
+            cli/cmd_rerun.o
 
 LIB_O = $(addprefix $(BUILD)/obj/,$(COMMON_O) $(VECTORS_O) $(SUITES_O) \
           $(SCORE_O) $(STATS_O) $(EVAL_O) $(REPORT_O))

@@ -21,6 +21,21 @@
 extern "C" {
 #endif
 
+/* One option of the run with its effective value (defaults included), as
+ * text. kind tells run.json how to type it. */
+typedef enum vg_setting_kind {
+    VG_SETTING_STRING = 0,
+    VG_SETTING_INTEGER = 1,
+    VG_SETTING_REAL = 2,
+    VG_SETTING_BOOL = 3   /* value "0" or "1" */
+} vg_setting_kind;
+
+typedef struct vg_setting {
+    const char *name;      /* the long option name, without "--" */
+    const char *value;
+    vg_setting_kind kind;
+} vg_setting;
+
 /* Where the numbers came from, for summary.md and run.json. Every field is
  * borrowed and may be NULL (left out of the output). */
 typedef struct vg_provenance {
@@ -28,6 +43,11 @@ typedef struct vg_provenance {
     const char *git_describe;  /* when built from a checkout */
     const char *utc_time;      /* ISO 8601, e.g. 2026-12-02T10:00:00Z */
     const char *command_line;  /* the exact command line, shell-quoted */
+    const char *const *argv;   /* the command line as given (argv[0] first) */
+    size_t argc;
+    const char *cwd;           /* working directory the paths are relative to */
+    const vg_setting *settings;/* every option with its effective value */
+    size_t n_settings;
 } vg_provenance;
 
 /* The header line of scores.csv, without the newline. */
@@ -52,6 +72,51 @@ VG_API vg_status vg_report_text_table(const vg_results *r, FILE *fp, vg_error *e
  * with the columns vectors,suite,word (missing.csv in a run directory). */
 VG_API vg_status vg_report_missing_words(const vg_results *r, FILE *fp,
                                          const char *path, vg_error *err);
+
+/* The header line of items.csv, without the newline. */
+VG_API const char *vg_report_items_header(void);
+
+/* Write items.csv: one row per vector set x item with the columns of
+ * vg_report_items_header(): for pairs the human rating and the cosine
+ * (empty when not scored, with the reason in status); for questions the
+ * accepted answers ('/'-separated), and per method the predicted word and
+ * 1/0 for correct (both empty when not scored). */
+VG_API vg_status vg_report_items_csv(const vg_results *r, FILE *fp, const char *path,
+                                     vg_error *err);
+
+/* Write table.tex: a booktabs tabular of the headline scores (Spearman's
+ * rho; analogy accuracy in percent by 3CosAdd and 3CosMul) with their
+ * headline intervals, the best set per row in bold. prov may be NULL. */
+VG_API vg_status vg_report_table_tex(const vg_results *r, const vg_provenance *prov,
+                                     FILE *fp, const char *path, vg_error *err);
+
+/* Write run.json (through jansson): tool version and git describe, UTC
+ * time, the command line (text and argv) and working directory, every
+ * option with its effective value, seed and bootstrap replicates, and for
+ * every vector file and suite file its path, size, sha256 and what the
+ * reader found (layout, rows, dims, duplicates, zero rows, ...). */
+VG_API vg_status vg_report_run_json(const vg_results *r, const vg_provenance *prov,
+                                    FILE *fp, const char *path, vg_error *err);
+
+/* What `vecgauge rerun` needs from a saved run.json. */
+typedef struct vg_run_record {
+    char *tool_version;
+    char *cwd;
+    char **argv;           /* argc entries; argv[0] is the program name */
+    size_t argc;
+    char **files;          /* every input file recorded (vectors and suites) */
+    char **sha256;         /* its recorded hash ("" when not hashed) */
+    size_t n_files;
+} vg_run_record;
+
+/* Read the parts of run.json that a rerun needs. VG_EFORMAT (with the
+ * line and column jansson reports) for a file that is not JSON or lacks a
+ * required key. On success *out owns a record to free with
+ * vg_run_record_free. */
+VG_API vg_status vg_run_record_read(const char *path, vg_run_record **out, vg_error *err);
+
+/* NULL does nothing. */
+VG_API void vg_run_record_free(vg_run_record *rec);
 
 /* A run directory being built. */
 typedef struct vg_rundir vg_rundir;

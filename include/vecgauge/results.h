@@ -91,13 +91,15 @@ typedef struct vg_eval_options {
 
 VG_API void vg_eval_options_init(vg_eval_options *opt);
 
-/* The table of scores. The suites are borrowed from the caller of
- * vg_evaluate and must outlive the results; labels and paths are copied. */
+/* The table of scores. The suites and vector sets are borrowed from the
+ * caller of vg_evaluate and must outlive the results (writers look up
+ * predicted words in them); labels and paths are copied. */
 typedef struct vg_results {
     size_t n_sets;
     char **labels;             /* n_sets labels */
     char **paths;              /* n_sets paths ("" for in-process sets) */
     vg_vectors_info *infos;    /* n_sets copies of the loader's info */
+    const vg_vectors **vectors;/* n_sets, borrowed */
     size_t n_suites;
     const vg_suite **suites;   /* n_suites, borrowed */
     vg_score_row *rows;        /* in the fixed order of scores.csv */

@@ -38,6 +38,10 @@ extern "C" {
  * of the header it was built with. */
 VG_API const char *vg_version(void);
 
+/* SHA-256 of a file as stored (no decompression), lower-case hex, and
+ * its size in *bytes (may be NULL). VG_EIO names the path on failure. */
+VG_API vg_status vg_file_sha256(const char *path, char hex[65], uint64_t *bytes, vg_error *err);
+
 /* One-time set-up: turns GSL's abort-on-error handler off so that GSL
  * reports errors as return codes. Safe to call more than once; every
  * entry point that uses GSL calls it. */

@@ -52,7 +52,19 @@ char *vg_cli_command_line(int argc, char **argv);
  * directory-friendly stamp ("20261202T100000Z"). */
 void vg_cli_utc_now(char iso[32], char stamp[32]);
 
+/* Write every file of a run directory into dir (temporary, then renamed);
+ * prints the error and returns VG_EXIT_FAIL on failure. */
+int vg_cli_write_run(const char *dir, const vg_results *res, const vg_provenance *prov);
+
+/* SIGINT/SIGTERM handling (signals.c): install the handlers once; while a
+ * run directory is written, register its temporary path so that a signal
+ * removes it; vg_cli_interrupted() tells long work to stop. */
+void vg_cli_install_signals(void);
+void vg_cli_set_cleanup(const char *temp_dir);
+int vg_cli_interrupted(void);
+
 /* The commands. Each gets argv starting at the command name. */
 int vg_cmd_score(int argc, char **argv);
+int vg_cmd_rerun(int argc, char **argv);
 
 #endif /* VG_CLI_H */

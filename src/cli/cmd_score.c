@@ -7,6 +7,7 @@
 #include <stdlib.h>
 #include <string.h>
 #include <sys/stat.h>
+#include <unistd.h>
 
 #include "cli.h"
 
@@ -31,8 +32,8 @@ static const char score_help[] =
     "\n"
     "  -h, --help             show this help and exit\n"
     "\n"
-    "Writes scores.csv, summary.md and missing.csv into the run directory and\n"
-    "prints the headline table on standard output.\n";
+    "Writes scores.csv, items.csv, missing.csv, summary.md, table.tex and run.json\n"
+    "into the run directory and prints the headline table on standard output.\n";
 
 typedef struct score_args {
     const char **pairs;
@@ -70,37 +71,25 @@ static const char **suite_words(vg_suite *const *suites, size_t n, size_t *count
     return w;
 }
 
-static int write_run(const char *dir, const vg_results *res, const vg_provenance *prov) {
-    vg_error err;
-    vg_error_clear(&err);
-    vg_rundir *rd = NULL;
-    FILE *fp = NULL;
-    vg_status st = vg_rundir_begin(dir, &rd, &err);
-    if (st == VG_OK && (st = vg_rundir_open(rd, "scores.csv", &fp, &err)) == VG_OK) {
-        st = vg_report_scores_csv(res, fp, vg_rundir_file(rd, "scores.csv"), &err);
-        vg_status c = vg_report_close(fp, vg_rundir_file(rd, "scores.csv"), &err);
-        if (st == VG_OK) st = c;
-    }
-    if (st == VG_OK && (st = vg_rundir_open(rd, "summary.md", &fp, &err)) == VG_OK) {
-        st = vg_report_summary_md(res, prov, fp, vg_rundir_file(rd, "summary.md"), &err);
-        vg_status c = vg_report_close(fp, vg_rundir_file(rd, "summary.md"), &err);
-        if (st == VG_OK) st = c;
-    }
-    if (st == VG_OK && (st = vg_rundir_open(rd, "missing.csv", &fp, &err)) == VG_OK) {
-        st = vg_report_missing_words(res, fp, vg_rundir_file(rd, "missing.csv"), &err);
-        vg_status c = vg_report_close(fp, vg_rundir_file(rd, "missing.csv"), &err);
-        if (st == VG_OK) st = c;
-    }
-    if (st == VG_OK) {
-        st = vg_rundir_commit(rd, &err);
-    } else {
-        vg_rundir_abort(rd);
-    }
-    if (st != VG_OK) {
-        vg_cli_error(&err);
-        return VG_EXIT_FAIL;
-    }
-    return VG_EXIT_OK;
+/* Every option of the run with its effective value, for run.json. The
+ * buffers live in *a so the settings stay valid while the run is written. */
+static size_t score_settings(score_args *a, vg_setting *st, char bufs[][32]) {
+    size_t n = 0;
+    snprintf(bufs[n], 32, "%llu", (unsigned long long)a->eval.seed);
+    st[n] = (vg_setting){"seed", bufs[n], VG_SETTING_INTEGER};
+    n++;
+    snprintf(bufs[n], 32, "%zu", a->eval.bootstrap);
+    st[n] = (vg_setting){"bootstrap", bufs[n], VG_SETTING_INTEGER};
+    n++;
+    snprintf(bufs[n], 32, "%.17g", a->eval.ci);
+    st[n] = (vg_setting){"ci", bufs[n], VG_SETTING_REAL};
+    n++;
+    snprintf(bufs[n], 32, "%u", a->eval.score.threads);
+    st[n] = (vg_setting){"threads", bufs[n], VG_SETTING_INTEGER};
+    n++;
+    st[n] = (vg_setting){"fold-case", a->eval.score.fold_case ? "1" : "0", VG_SETTING_BOOL};
+    n++;
+    return n;
 }
 
 int vg_cmd_score(int argc, char **argv) {
@@ -238,8 +227,20 @@ int vg_cmd_score(int argc, char **argv) {
         out = outbuf;
     }
     cmdline = vg_cli_command_line(vg_cli_argc, vg_cli_argv);
-    vg_provenance prov = {vg_version(), vg_cli_git_describe, iso, cmdline};
-    rc = write_run(out, res, &prov);
+    char cwd[4096];
+    if (!getcwd(cwd, sizeof cwd)) cwd[0] = '\0';
+    vg_setting settings[32];
+    char setting_bufs[32][32];
+    vg_provenance prov = {.tool_version = vg_version(),
+                          .git_describe = vg_cli_git_describe,
+                          .utc_time = iso,
+                          .command_line = cmdline,
+                          .argv = (const char *const *)vg_cli_argv,
+                          .argc = (size_t)vg_cli_argc,
+                          .cwd = cwd,
+                          .settings = settings,
+                          .n_settings = score_settings(&a, settings, setting_bufs)};
+    rc = vg_cli_write_run(out, res, &prov);
     if (rc == VG_EXIT_OK) {
         if (vg_report_text_table(res, stdout, &err) != VG_OK) {
             vg_cli_error(&err);

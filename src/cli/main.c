@@ -16,6 +16,7 @@ static int cmd_help(int argc, char **argv);
 
 static const command commands[] = {
     {"score", vg_cmd_score, "score vector sets on suites and write a run directory"},
+    {"rerun", vg_cmd_rerun, "re-run a saved run directory after checking its inputs"},
     {"help", cmd_help, "show help for vecgauge or for one command"},
 };
 #define N_COMMANDS (sizeof commands / sizeof commands[0])
@@ -63,6 +64,7 @@ int main(int argc, char **argv) {
     vg_init();
     vg_cli_argc = argc;
     vg_cli_argv = argv;
+    vg_cli_install_signals();
     if (argc < 2) {
         main_help(stderr);
         return VG_EXIT_USAGE;

@@ -6,6 +6,8 @@
  */
 #include "sha256.h"
 
+#include "vecgauge/vecgauge.h"
+
 #include <errno.h>
 #include <openssl/evp.h>
 #include <stdio.h>
@@ -83,4 +85,8 @@ vg_status vg_sha256_file(const char *path, char hex[65], uint64_t *bytes, vg_err
     vg_sha256_final(h, hex);
     if (bytes) *bytes = total;
     return VG_OK;
+}
+
+vg_status vg_file_sha256(const char *path, char hex[65], uint64_t *bytes, vg_error *err) {
+    return vg_sha256_file(path, hex, bytes, err);
 }

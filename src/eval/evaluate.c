@@ -18,9 +18,10 @@ static vg_results *results_new(const vg_vector_set *sets, size_t n_sets,
     r->labels = vg_calloc(n_sets, sizeof *r->labels);
     r->paths = vg_calloc(n_sets, sizeof *r->paths);
     r->infos = vg_calloc(n_sets, sizeof *r->infos);
+    r->vectors = vg_calloc(n_sets, sizeof *r->vectors);
     r->suites = vg_calloc(n_suites ? n_suites : 1, sizeof *r->suites);
     r->blocks = vg_calloc(n_sets * n_suites > 0 ? n_sets * n_suites : 1, sizeof *r->blocks);
-    if (!r->labels || !r->paths || !r->infos || !r->suites || !r->blocks) {
+    if (!r->labels || !r->paths || !r->infos || !r->vectors || !r->suites || !r->blocks) {
         vg_results_free(r);
         return NULL;
     }
@@ -32,6 +33,7 @@ static vg_results *results_new(const vg_vector_set *sets, size_t n_sets,
             return NULL;
         }
         r->infos[i] = *vg_vectors_get_info(sets[i].vectors);
+        r->vectors[i] = sets[i].vectors;
     }
     for (size_t k = 0; k < n_suites; k++) r->suites[k] = suites[k];
     return r;

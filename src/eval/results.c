@@ -68,6 +68,7 @@ void vg_results_free(vg_results *r) {
     vg_free(r->labels);
     vg_free(r->paths);
     vg_free(r->infos);
+    vg_free(r->vectors);
     if (r->blocks) {
         for (size_t i = 0; i < r->n_sets * r->n_suites; i++) {
             vg_similarity_scores_free(r->blocks[i].sim);

@@ -18,6 +18,9 @@ VG_INTERNAL void vg_csv_double(FILE *fp, double x, char sep);
 /* An unsigned count as a CSV field. */
 VG_INTERNAL void vg_csv_size(FILE *fp, size_t x, char sep);
 
+/* Write s with LaTeX's special characters escaped. */
+VG_INTERNAL void vg_tex_text(FILE *fp, const char *s);
+
 /* Escape s for a Markdown table cell ('|' and newlines). */
 VG_INTERNAL void vg_md_cell(FILE *fp, const char *s);
 

@@ -1,0 +1,81 @@
+/* signals.c - SIGINT and SIGTERM leave no partial run directory.
+ * Part of vecgauge; MIT licence, see LICENSE.
+ *
+ * While a run directory is being written its temporary path is
+ * registered here. A first signal removes that temporary directory's
+ * files (with async-signal-safe calls only: the directory holds only the
+ * regular files we name) and exits with 128 + the signal number, as a
+ * shell would report it. Outside that window the signal just sets a flag
+ * that long-running work polls, and the default action follows.
+ */
+#include <fcntl.h>
+#include <signal.h>
+#include <string.h>
+#include <unistd.h>
+
+#include "cli.h"
+
+static volatile sig_atomic_t got_signal;
+static char cleanup_dir[4096];
+static volatile sig_atomic_t cleanup_set;
+
+/* The file names a run directory can hold; kept in step with
+ * run_output.c (a test interrupts runs and checks nothing is left). */
+static const char *const run_names[] = {"scores.csv", "items.csv", "missing.csv", "summary.md",
+                                        "table.tex", "run.json", "intervals.csv",
+                                        "comparison.csv", NULL};
+
+static void remove_run_temp(void) {
+    if (!cleanup_set) return;
+    char path[4096 + 64];
+    size_t n = strlen(cleanup_dir);
+    for (int i = 0; run_names[i]; i++) {
+        size_t m = strlen(run_names[i]);
+        if (n + 1 + m + 1 > sizeof path) continue;
+        memcpy(path, cleanup_dir, n);
+        path[n] = '/';
+        memcpy(path + n + 1, run_names[i], m + 1);
+        unlink(path);
+    }
+    rmdir(cleanup_dir);
+}
+
+static void on_signal(int sig) {
+    got_signal = sig;
+    if (cleanup_set) {
+        remove_run_temp();
+        _exit(128 + sig);
+    }
+    /* Nothing half-written to remove: restore the default action and
+     * re-raise so the exit status says which signal it was. */
+    signal(sig, SIG_DFL);
+    raise(sig);
+}
+
+void vg_cli_install_signals(void) {
+    struct sigaction sa;
+    memset(&sa, 0, sizeof sa);
+    sa.sa_handler = on_signal;
+    sigemptyset(&sa.sa_mask);
+    sigaction(SIGINT, &sa, NULL);
+    sigaction(SIGTERM, &sa, NULL);
+}
+
+void vg_cli_set_cleanup(const char *temp_dir) {
+    /* Block the signals while the path changes so that the handler never
+     * sees a half-copied path. */
+    sigset_t block, old;
+    sigemptyset(&block);
+    sigaddset(&block, SIGINT);
+    sigaddset(&block, SIGTERM);
+    sigprocmask(SIG_BLOCK, &block, &old);
+    if (temp_dir && strlen(temp_dir) < sizeof cleanup_dir) {
+        memcpy(cleanup_dir, temp_dir, strlen(temp_dir) + 1);
+        cleanup_set = 1;
+    } else {
+        cleanup_set = 0;
+    }
+    sigprocmask(SIG_SETMASK, &old, NULL);
+}
+
+int vg_cli_interrupted(void) { return got_signal != 0; }
