@@ -59,7 +59,7 @@ $(shell mkdir -p $(BUILD)/gen; \
 # ---- the library, by the stage the data flows through --------------------
 COMMON_O  = common/error.o common/alloc.o common/arena.o common/strmap.o \
             common/text.o common/lines.o common/sha256.o common/threads.o \
-            common/numfmt.o common/version.o
+            common/numfmt.o common/version.o common/csvread.o
 VECTORS_O = vectors/vectors.o vectors/load.o vectors/text.o
 SUITES_O  = suites/suite.o suites/fields.o suites/pairs.o suites/analogies.o
 SCORE_O   = score/similarity.o score/analogy.o
@@ -77,6 +77,12 @@ BIN_O = $(addprefix $(BUILD)/obj/,$(CLI_O))
 
 LIB   = $(BUILD)/libvecgauge.a
 BIN   = $(BUILD)/vecgauge
+# The shared library: versioned file name, soname on the major version.
+SONAME = libvecgauge.so.$(VERSION_MAJOR)
+SOLIB  = $(BUILD)/libvecgauge.so.$(VERSION)
+VERSION       := $(shell sed -n 's/^\#define VG_VERSION_STRING "\(.*\)"/\1/p' include/vecgauge/vg_config.h)
+VERSION_MAJOR := $(firstword $(subst ., ,$(VERSION)))
+PC    = $(BUILD)/vecgauge.pc
 
 # ---- tests --------------------------------------------------------------
 UNIT_TESTS = $(patsubst tests/unit/%.c,$(BUILD)/tests/%,$(wildcard tests/unit/test_*.c))
@@ -98,7 +104,7 @@ DEMO_DIR = $(BUILD)/demo
 
 .PHONY: all check check-fast demo bench install uninstall clean deps tests fuzz fuzz-bins
 
-all: deps $(LIB) $(BIN) tests
+all: deps $(LIB) $(SOLIB) $(PC) $(BIN) tests
 
 tests: $(UNIT_TESTS) $(TEST_HELPERS) $(GEN_DEMO) $(FUZZ_REPLAY)
 
@@ -114,6 +120,16 @@ $(BUILD)/obj/%.o: src/%.c | deps
 $(LIB): $(LIB_O)
 	@rm -f $@
 	ar rcs $@ $^
+
+$(SOLIB): $(LIB_O)
+	$(CC) $(LDFLAGS) -shared -Wl,-soname,$(SONAME) -o $@ $(LIB_O) $(LDLIBS)
+	ln -sf $(notdir $@) $(BUILD)/$(SONAME)
+	ln -sf $(SONAME) $(BUILD)/libvecgauge.so
+
+$(PC): scripts/vecgauge.pc.in include/vecgauge/vg_config.h Makefile
+	sed -e 's|@PREFIX@|$(PREFIX)|' -e 's|@VERSION@|$(VERSION)|' \
+	    -e 's|@REQUIRES@|$(PKGS)|' -e 's|@LIBS_PRIVATE@|-lgsl -lcsv -lunistring -lm -pthread|' \
+	    scripts/vecgauge.pc.in > $@
 
 $(BIN): $(BIN_O) $(LIB)
 	$(CC) $(LDFLAGS) -o $@ $(BIN_O) $(LIB) $(LDLIBS)
@@ -171,16 +187,29 @@ demo: all
 bench: all
 	@scripts/bench $(BUILD)
 
+# What `make install` puts where; `make uninstall` removes exactly these.
+HEADERS = $(wildcard include/vecgauge/*.h)
+INST_BIN = $(DESTDIR)$(PREFIX)/bin
+INST_LIB = $(DESTDIR)$(PREFIX)/lib
+INST_INC = $(DESTDIR)$(PREFIX)/include/vecgauge
+INST_PC  = $(DESTDIR)$(PREFIX)/lib/pkgconfig
+INSTALLED = $(INST_BIN)/vecgauge $(INST_LIB)/libvecgauge.a $(INST_LIB)/libvecgauge.so.$(VERSION) \
+            $(INST_LIB)/$(SONAME) $(INST_LIB)/libvecgauge.so $(INST_PC)/vecgauge.pc \
+            $(addprefix $(INST_INC)/,$(notdir $(HEADERS)))
+
 install: all
-	install -d $(DESTDIR)$(PREFIX)/bin $(DESTDIR)$(PREFIX)/lib $(DESTDIR)$(PREFIX)/include/vecgauge
-	install -m 755 $(BIN) $(DESTDIR)$(PREFIX)/bin/vecgauge
-	install -m 644 $(LIB) $(DESTDIR)$(PREFIX)/lib/libvecgauge.a
-	install -m 644 include/vecgauge/*.h $(DESTDIR)$(PREFIX)/include/vecgauge/
+	install -d $(INST_BIN) $(INST_LIB) $(INST_INC) $(INST_PC)
+	install -m 755 $(BIN) $(INST_BIN)/vecgauge
+	install -m 644 $(LIB) $(INST_LIB)/libvecgauge.a
+	install -m 755 $(SOLIB) $(INST_LIB)/libvecgauge.so.$(VERSION)
+	ln -sf libvecgauge.so.$(VERSION) $(INST_LIB)/$(SONAME)
+	ln -sf $(SONAME) $(INST_LIB)/libvecgauge.so
+	install -m 644 $(HEADERS) $(INST_INC)/
+	install -m 644 $(PC) $(INST_PC)/vecgauge.pc
 
 uninstall:
-	rm -f $(DESTDIR)$(PREFIX)/bin/vecgauge $(DESTDIR)$(PREFIX)/lib/libvecgauge.a
-	rm -f $(addprefix $(DESTDIR)$(PREFIX)/include/vecgauge/,$(notdir $(wildcard include/vecgauge/*.h)))
-	-rmdir $(DESTDIR)$(PREFIX)/include/vecgauge
+	rm -f $(INSTALLED)
+	-rmdir $(INST_INC) 2>/dev/null
 
 clean:
 	rm -rf build
