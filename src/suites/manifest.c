@@ -458,7 +458,8 @@ vg_status vg_manifest_parse(const char *text, size_t len, const char *name, vg_m
         p.row_done = 0;
     }
     if (p.st == VG_OK && csv_fini(&cp, field_cb, row_cb, &p) != 0)
-        p.st = vg_error_set(err, VG_EFORMAT, name, p.next_line, "malformed CSV: unterminated quote");
+        p.st = vg_error_set(err, VG_EFORMAT, name, p.line,
+                            "malformed CSV: a quoted field of the row starting here is unterminated");
     csv_free(&cp);
     vg_free(p.field);
     if (p.st == VG_OK && !p.have_header)

@@ -80,9 +80,9 @@ static unsigned first_number_col(const vg_fields *f, unsigned after) {
 /* Fill the layout's undecided parts (delimiter 0, rating column 0, header
  * lines -1) from a sample of the file. *skip_data gets the number of
  * leading data lines that are a header. The rules, in order:
- *  - delimiter: tab, then comma, then blanks: the first that splits at
- *    least 9 in 10 sample lines (the first line aside, it may be a
- *    header) into enough fields;
+ *  - delimiter: of tab, comma and blanks, the one that splits the most
+ *    sample lines into enough fields (a stray tab on one line does not
+ *    outvote blanks on the others);
  *  - rating column: the first numeric column after the two words, the
  *    most common such column over the sample (SimLex-999 and SimVerb-3500
  *    have a part-of-speech column before the rating);
@@ -101,11 +101,12 @@ static vg_status detect(const char *path, vg_pairs_layout *lay, unsigned c1, uns
     size_t from = sm.n > 1 ? 1 : 0;
     if (!lay->delimiter) {
         static const char cands[] = {'\t', ',', ' '};
+        size_t best = 0;
         lay->delimiter = ' ';
         for (size_t k = 0; k < sizeof cands; k++) {
             size_t good = 0;
-            for (size_t i = from; i < sm.n; i++) {
-                if (!memchr(sm.line[i], cands[k], sm.len[i]) && cands[k] != ' ') continue;
+            for (size_t i = 0; i < sm.n; i++) {
+                if (cands[k] != ' ' && !memchr(sm.line[i], cands[k], sm.len[i])) continue;
                 /* A line libcsv rejects counts as not fitting. */
                 vg_error ignored;
                 if (vg_fields_split(&f, sm.line[i], sm.len[i], cands[k], path, 0, &ignored) ==
@@ -113,9 +114,12 @@ static vg_status detect(const char *path, vg_pairs_layout *lay, unsigned c1, uns
                     f.n >= need)
                     good++;
             }
-            if (10 * good >= 9 * (sm.n - from) && good > 0) {
+            /* Strictly more lines than an earlier candidate: on a tie the
+             * order tab, comma, blank wins (a tab file with spaces inside
+             * entries also splits on blanks). */
+            if (good > best) {
+                best = good;
                 lay->delimiter = cands[k];
-                break;
             }
         }
     }
