@@ -56,13 +56,14 @@ VECTORS_O = vectors/vectors.o vectors/load.o vectors/text.o
 SUITES_O  = suites/suite.o suites/fields.o suites/pairs.o suites/analogies.o \
             suites/relation.o suites/split.o suites/groups.o suites/manifest.o \
             suites/datadir.o gen/manifest_csv.o
+FETCH_O   = fetch/download.o fetch/extract.o fetch/fetch.o
 SCORE_O   = score/similarity.o score/analogy.o
 STATS_O   = stats/rank.o stats/correlation.o stats/resample.o
 EVAL_O    = eval/results.o eval/evaluate.o eval/similarity_rows.o
 REPORT_O  = report/csvout.o report/summary_md.o report/rundir.o
-CLI_O     = cli/main.o cli/util.o cli/cmd_score.o
+CLI_O     = cli/main.o cli/util.o cli/cmd_score.o cli/cmd_suites.o cli/cmd_fetch.o
 
-LIB_O = $(addprefix $(BUILD)/obj/,$(COMMON_O) $(VECTORS_O) $(SUITES_O) \
+LIB_O = $(addprefix $(BUILD)/obj/,$(COMMON_O) $(VECTORS_O) $(SUITES_O) $(FETCH_O) \
           $(SCORE_O) $(STATS_O) $(EVAL_O) $(REPORT_O))
 BIN_O = $(addprefix $(BUILD)/obj/,$(CLI_O))
 

@@ -54,5 +54,7 @@ void vg_cli_utc_now(char iso[32], char stamp[32]);
 
 /* The commands. Each gets argv starting at the command name. */
 int vg_cmd_score(int argc, char **argv);
+int vg_cmd_suites(int argc, char **argv);
+int vg_cmd_fetch(int argc, char **argv);
 
 #endif /* VG_CLI_H */
