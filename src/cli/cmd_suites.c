@@ -73,8 +73,12 @@ static const char *noticed(const vg_suite *s, char *buf, size_t size) {
     return buf;
 }
 
+/* One CSV field: quoted by libcsv when it needs quoting, else as is. */
 static void csv_out(const char *s, int last) {
-    csv_fwrite(stdout, s, strlen(s));
+    if (strpbrk(s, ",\"\r\n") || (*s && (s[0] == ' ' || s[strlen(s) - 1] == ' ')))
+        csv_fwrite(stdout, s, strlen(s));
+    else
+        fputs(s, stdout);
     fputc(last ? '\n' : ',', stdout);
 }
 

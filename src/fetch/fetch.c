@@ -71,8 +71,12 @@ static vg_status join(char *buf, size_t size, const char *a, const char *b, vg_e
     return VG_OK;
 }
 
+/* One CSV field: quoted by libcsv when it needs quoting, else as is. */
 static void csv_field(FILE *fp, const char *s, int last) {
-    csv_fwrite(fp, s, strlen(s));
+    if (strpbrk(s, ",\"\r\n") || (*s && (s[0] == ' ' || s[strlen(s) - 1] == ' ')))
+        csv_fwrite(fp, s, strlen(s));
+    else
+        fputs(s, fp);
     fputc(last ? '\n' : ',', fp);
 }
 
