@@ -12,7 +12,8 @@
 
 static const char score_help[] =
     "Usage: vecgauge score [OPTION]... VECTORS...\n"
-    "Score one or more vector sets on word-pair suites and write a run directory.\n"
+    "Score one or more vector sets on word-pair and analogy suites and write a run\n"
+    "directory.\n"
     "\n"
     "A vector set is given as PATH or LABEL=PATH; without a label, the file name\n"
     "up to its first '.' is used.\n"
@@ -24,9 +25,9 @@ static const char score_help[] =
     "  -p, --pairs FILE       a word-pair file (word, word, rating); repeatable\n"
     "  -a, --analogies FILE   an analogy file or folder of relation files, layout\n"
     "                         detected; repeatable\n"
-    "  -d, --data DIR         the data directory (default: $VECGAUGE_DATA, else\n"
+    "      --data DIR         the data directory (default: $VECGAUGE_DATA, else\n"
     "                         $XDG_DATA_HOME/vecgauge, else ~/.local/share/vecgauge)\n"
-    "  -m, --manifest FILE    read this manifest instead of the built-in one\n"
+    "      --manifest FILE    read this manifest instead of the built-in one\n"
     "\n"
     "Output:\n"
     "  -o, --out DIR          run directory to create (default: results/<UTC time>-<label>)\n"
@@ -60,14 +61,14 @@ typedef struct score_args {
     vg_eval_options eval;
 } score_args;
 
-enum { OPT_FOLD = 256, OPT_SEED, OPT_BOOT };
+enum { OPT_FOLD = 256, OPT_SEED, OPT_BOOT, OPT_DATA, OPT_MANIFEST };
 
 static const struct option long_opts[] = {
     {"suite", required_argument, NULL, 's'},
     {"pairs", required_argument, NULL, 'p'},
     {"analogies", required_argument, NULL, 'a'},
-    {"data", required_argument, NULL, 'd'},
-    {"manifest", required_argument, NULL, 'm'},
+    {"data", required_argument, NULL, OPT_DATA},
+    {"manifest", required_argument, NULL, OPT_MANIFEST},
     {"out", required_argument, NULL, 'o'},
     {"fold-case", no_argument, NULL, OPT_FOLD},
     {"seed", required_argument, NULL, OPT_SEED},
@@ -269,7 +270,7 @@ int vg_cmd_score(int argc, char **argv) {
     opterr = 0;
     int c;
     uint64_t u;
-    while ((c = getopt_long(argc, argv, ":s:p:a:d:m:o:j:h", long_opts, NULL)) != -1) {
+    while ((c = getopt_long(argc, argv, ":s:p:a:o:j:h", long_opts, NULL)) != -1) {
         switch (c) {
         case 's':
         case 'p':
@@ -280,8 +281,8 @@ int vg_cmd_score(int argc, char **argv) {
                 goto done;
             }
             break;
-        case 'd': a.data = optarg; break;
-        case 'm': a.manifest = optarg; break;
+        case OPT_DATA: a.data = optarg; break;
+        case OPT_MANIFEST: a.manifest = optarg; break;
         case 'o': a.out = optarg; break;
         case OPT_FOLD: a.eval.score.fold_case = 1; break;
         case OPT_SEED:

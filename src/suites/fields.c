@@ -137,12 +137,6 @@ void vg_fields_free(vg_fields *f) {
     memset(f, 0, sizeof *f);
 }
 
-char vg_fields_guess_delim(const char *line, size_t len) {
-    if (memchr(line, '\t', len)) return '\t';
-    if (memchr(line, ',', len)) return ',';
-    return ' ';
-}
-
 int vg_parse_double(const char *s, size_t n, double *out) {
     char buf[64];
     while (n > 0 && (*s == ' ' || *s == '\t')) s++, n--;
