@@ -9,6 +9,8 @@
 
 #include <sys/stat.h>
 
+#include "common/alloc.h"
+
 static vg_manifest *load(const char *path) {
     vg_manifest *m = NULL;
     vg_error err;
@@ -271,11 +273,37 @@ static void test_data_dir(void **state) {
     assert_int_equal(vg_data_dir("/a/long/path", tiny, sizeof tiny, &src, &err), VG_ELIMIT);
 }
 
+/* manifest-7: allocation failures while parsing the built-in manifest
+ * and reading a suite through it are VG_ENOMEM, never a crash or leak. */
+static void test_alloc_failures(void **state) {
+    (void)state;
+    int parsed = 0, read = 0;
+    for (long n = 0; n < 5000 && !(parsed && read); n++) {
+        vg_manifest *m = NULL;
+        vg_error err;
+        vg_error_clear(&err);
+        vg_alloc_fail_after(n);
+        vg_status st = vg_manifest_load(fixture("manifest/mini.csv"), &m, &err);
+        if (st == VG_OK) {
+            parsed = 1;
+            vg_suite *s = NULL;
+            st = vg_suite_read_entry(vg_manifest_find(m, "ana-sec"), data(), &s, &err);
+            if (st == VG_OK) read = 1;
+            vg_suite_free(s);
+        }
+        vg_alloc_fail_after(-1);
+        if (st != VG_OK) assert_int_equal(st, VG_ENOMEM);
+        vg_manifest_free(m);
+    }
+    assert_true(parsed && read);
+}
+
 int main(void) {
     const struct CMUnitTest tests[] = {
         cmocka_unit_test(test_parse_mini),   cmocka_unit_test(test_read_entries),
         cmocka_unit_test(test_variant_fallback), cmocka_unit_test(test_errors),
         cmocka_unit_test(test_builtin),      cmocka_unit_test(test_data_dir),
+        cmocka_unit_test(test_alloc_failures),
     };
     return cmocka_run_group_tests_name("manifest", tests, NULL, NULL);
 }

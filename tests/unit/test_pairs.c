@@ -242,6 +242,16 @@ static void test_bom(void **state) {
     vg_suite_free(s);
 }
 
+/* pairs-14.1: bytes that are not UTF-8 (Windows-1252, as in WordSim-353's
+ * instructions.txt) are kept as they are, not rejected or mangled. */
+static void test_not_utf8(void **state) {
+    (void)state;
+    vg_suite *s = read_ok("pairs/cp1252.tsv", NULL);
+    assert_string_equal(s->pairs[0].w1, "caf\xe9");
+    assert_string_equal(s->pairs[1].w1, "na\xefve");
+    vg_suite_free(s);
+}
+
 /* pairs-15: a varying number of raters' columns after the mean (RW:
  * rows of 10 to 13 fields). */
 static void test_raters_variable(void **state) {
@@ -336,6 +346,7 @@ int main(void) {
         cmocka_unit_test(test_scales),         cmocka_unit_test(test_no_final_newline),
         cmocka_unit_test(test_men_header),     cmocka_unit_test(test_mixed_case),
         cmocka_unit_test(test_multiword),      cmocka_unit_test(test_bom),
+        cmocka_unit_test(test_not_utf8),
         cmocka_unit_test(test_raters_variable), cmocka_unit_test(test_simlex_like),
         cmocka_unit_test(test_quote_inside),   cmocka_unit_test(test_gzip),
         cmocka_unit_test(test_alloc_failures),
