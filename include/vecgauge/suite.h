@@ -137,6 +137,7 @@ typedef enum vg_analogy_layout {
  *   line is "word<TAB>answer1/answer2/..."; the questions are all ordered
  *   pairs (i, j) of distinct lines: a = word i, b = first answer of i,
  *   c = word j, answers = every answer of line j (line = line of j).
+ *   More than 2,000,000 questions in all is VG_ELIMIT.
  * - VG_ANALOGY_SPLIT: "a b c" lines in path, the answer of each in the
  *   same position of answers_path ("d" or "label d"); a count mismatch
  *   is VG_ETRUNCATED naming the shorter file.

@@ -15,9 +15,10 @@
 #include "suite_impl.h"
 
 /* A relation file of n lines makes n * (n - 1) questions; this bounds
- * the total so that a wrong file cannot exhaust memory. BATS 3.0 has 40
+ * the total so that a wrong file cannot exhaust memory (2 million
+ * questions hold about 130 MB). BATS 3.0 has 40
  * files of 50 lines, 98,000 questions (50 * 49 * 40). */
-#define MAX_QUESTIONS 20000000u
+#define MAX_QUESTIONS 2000000u
 /* How deep a directory of relation files is searched. */
 #define MAX_DEPTH 4
 
