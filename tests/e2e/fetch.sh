@@ -176,6 +176,40 @@ if [ -z "$(find "$DATA" -maxdepth 1 -name '.fetch-*')" ]; then ok "fetch-15 no s
 expect_status "fetch-16 score --suite on the fetched copy: exit 0" 0 "$VG_BIN" score --manifest "$TMP/m.csv" --data "$DATA" --suite zipped --out "$TMP/run" "$VG_FIXTURES/vectors/header.txt"
 expect_in "fetch-16 scores.csv has the suite" "zipped" "$TMP/run/scores.csv"
 
+# fetch-18: TLS verification is always on: an HTTPS server on 127.0.0.1
+# with a self-signed certificate (made with the openssl tool) is refused.
+if command -v openssl > /dev/null 2>&1 &&
+   openssl req -x509 -newkey rsa:2048 -nodes -subj "/CN=127.0.0.1" -days 1 \
+       -keyout "$TMP/key.pem" -out "$TMP/cert.pem" > "$TMP/openssl.log" 2>&1; then
+    "$PY" - "$SRV" "$TMP/tlsport" "$TMP/cert.pem" "$TMP/key.pem" > "$TMP/tls.log" 2>&1 <<'PYEOF' &
+import functools, http.server, os, ssl, sys
+handler = functools.partial(http.server.SimpleHTTPRequestHandler, directory=sys.argv[1])
+httpd = http.server.ThreadingHTTPServer(("127.0.0.1", 0), handler)
+ctx = ssl.SSLContext(ssl.PROTOCOL_TLS_SERVER)
+ctx.load_cert_chain(sys.argv[3], sys.argv[4])
+httpd.socket = ctx.wrap_socket(httpd.socket, server_side=True)
+with open(sys.argv[2] + ".tmp", "w") as f:
+    f.write(str(httpd.server_address[1]))
+os.rename(sys.argv[2] + ".tmp", sys.argv[2])
+httpd.serve_forever()
+PYEOF
+    TLS_PID=$!
+    for _ in $(seq 1 100); do [ -s "$TMP/tlsport" ] && break; sleep 0.1; done
+    if [ -s "$TMP/tlsport" ]; then
+        printf 'id,variant,task,files,url\nselfsigned,v,similarity,alpha.tsv,https://127.0.0.1:%s/alpha.tsv\n' \
+            "$(cat "$TMP/tlsport")" > "$TMP/tls.csv"
+        expect_status "fetch-18 self-signed HTTPS server refused: exit 1" 1 "$VG_BIN" fetch --manifest "$TMP/tls.csv" --data "$DATA" selfsigned
+        expect_in "fetch-18 the error is the certificate check" "certificate" "$TMP/err"
+        check "fetch-18 nothing installed" test ! -e "$DATA/selfsigned/alpha.tsv"
+    else
+        skip "the local HTTPS server did not start: $(head -c 200 "$TMP/tls.log")"
+    fi
+    kill "$TLS_PID" 2>/dev/null
+    wait "$TLS_PID" 2>/dev/null
+else
+    skip "the openssl tool is not installed: the TLS check is not run (scripts/install-deps installs it)"
+fi
+
 # fetch-17: usage errors.
 expect_status "fetch-17 no id: usage error 2" 2 "${F[@]}"
 expect_status "fetch-17 unknown id: usage error 2" 2 "${F[@]}" no-such-suite
