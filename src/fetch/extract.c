@@ -35,30 +35,19 @@ int vg_fetch_safe_member(const char *name) {
     return 1;
 }
 
-/* Create every directory of rel (a checked relative path) under root,
- * the last component excluded unless with_last. */
-static vg_status make_parents(const char *root, const char *rel, int with_last, vg_error *err) {
+/* Create the directories above root/rel (rel is a checked relative path). */
+static vg_status make_parents(const char *root, const char *rel, vg_error *err) {
     char path[4096];
-    size_t rl = strlen(root);
-    if (rl + 1 + strlen(rel) >= sizeof path)
+    if ((size_t)snprintf(path, sizeof path, "%s/%s", root, rel) >= sizeof path)
         return vg_error_set(err, VG_ELIMIT, rel, 0, "archive member path too long");
-    memcpy(path, root, rl);
-    path[rl] = '/';
-    strcpy(path + rl + 1, rel);
-    for (char *p = path + rl + 1; *p; p++) {
-        if (*p != '/') continue;
-        *p = '\0';
-        if (mkdir(path, 0755) != 0 && errno != EEXIST) return vg_error_set(err, VG_EIO, path, 0, "cannot create directory");
-        *p = '/';
-    }
-    if (with_last && mkdir(path, 0755) != 0 && errno != EEXIST)
-        return vg_error_set(err, VG_EIO, path, 0, "cannot create directory");
-    return VG_OK;
+    char *slash = strrchr(path, '/');
+    *slash = '\0';
+    return vg_fetch_mkdirs(path, err);
 }
 
 static vg_status write_member(struct archive *a, const char *root, const char *rel,
                               uint64_t *total, uint64_t max, const char *member, vg_error *err) {
-    vg_status st = make_parents(root, rel, 0, err);
+    vg_status st = make_parents(root, rel, err);
     if (st != VG_OK) return st;
     char path[4096];
     snprintf(path, sizeof path, "%s/%s", root, rel);

@@ -48,7 +48,7 @@ static int rm_one(const char *path, const struct stat *sb, int flag, struct FTW 
 /* Remove a staging directory and everything in it (links not followed). */
 static void remove_tree(const char *path) { nftw(path, rm_one, 16, FTW_DEPTH | FTW_PHYS); }
 
-static vg_status mkdir_p(const char *dir, vg_error *err) {
+vg_status vg_fetch_mkdirs(const char *dir, vg_error *err) {
     char p[4096];
     if (snprintf(p, sizeof p, "%s", dir) >= (int)sizeof p)
         return vg_error_set(err, VG_ELIMIT, dir, 0, "path too long");
@@ -135,7 +135,7 @@ static vg_status install(const vg_suite_entry *e, const vg_suite_variant *var, c
                          const char *data_dir, vg_error *err) {
     char dest_dir[4096], from[4096], to[4096], old[4300];
     vg_status st = join(dest_dir, sizeof dest_dir, data_dir, e->id, err);
-    if (st == VG_OK) st = mkdir_p(dest_dir, err);
+    if (st == VG_OK) st = vg_fetch_mkdirs(dest_dir, err);
     for (size_t f = 0; st == VG_OK && f < var->n_files; f++) {
         char staged_dir[4096];
         st = join(staged_dir, sizeof staged_dir, stage, e->id, err);
@@ -146,7 +146,7 @@ static vg_status install(const vg_suite_entry *e, const vg_suite_variant *var, c
         char *slash = strrchr(to, '/');
         if (slash && slash > to + strlen(dest_dir)) {
             *slash = '\0';
-            st = mkdir_p(to, err);
+            st = vg_fetch_mkdirs(to, err);
             *slash = '/';
             if (st != VG_OK) break;
         }
@@ -181,7 +181,7 @@ static vg_status try_variant(const vg_suite_entry *e, size_t v, const vg_fetch_o
                                 e->id, var->name, var->files[f]);
 
     char stage[4096], root[4096], dl[4200];
-    vg_status st = mkdir_p(opt->data_dir, err);
+    vg_status st = vg_fetch_mkdirs(opt->data_dir, err);
     if (st != VG_OK) return st;
     if ((size_t)snprintf(stage, sizeof stage, "%s/.fetch-%s-XXXXXX", opt->data_dir, e->id) >= sizeof stage)
         return vg_error_set(err, VG_ELIMIT, opt->data_dir, 0, "path too long");

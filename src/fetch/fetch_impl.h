@@ -19,6 +19,10 @@ VG_INTERNAL vg_status vg_fetch_download(const char *url, const char *dest,
                                         const vg_fetch_options *opt, char sha256[65],
                                         uint64_t *bytes, vg_error *err);
 
+/* Create dir and every missing parent (mkdir -p). VG_EIO names the one
+ * that could not be made. */
+VG_INTERNAL vg_status vg_fetch_mkdirs(const char *dir, vg_error *err);
+
 /* 1 if an archive member's name stays below the directory it is
  * extracted into: relative, no '..' part, not "C:..." (backslashes count
  * as separators). */
