@@ -61,7 +61,10 @@ COMMON_O  = common/error.o common/alloc.o common/arena.o common/strmap.o \
             common/text.o common/lines.o common/sha256.o common/threads.o \
             common/numfmt.o common/version.o common/csvread.o
 VECTORS_O = vectors/vectors.o vectors/load.o vectors/text.o
-SUITES_O  = suites/suite.o suites/fields.o suites/pairs.o suites/analogies.o
+SUITES_O  = suites/suite.o suites/fields.o suites/pairs.o suites/analogies.o \
+            suites/relation.o suites/split.o suites/groups.o suites/manifest.o \
+            suites/datadir.o gen/manifest_csv.o
+FETCH_O   = fetch/download.o fetch/extract.o fetch/fetch.o
 SCORE_O   = score/similarity.o score/analogy.o
 STATS_O   = stats/rank.o stats/correlation.o stats/resample.o \
             stats/paired_correlation.o stats/paired_counts.o
@@ -69,9 +72,9 @@ EVAL_O    = eval/results.o eval/evaluate.o eval/similarity_rows.o
 REPORT_O  = report/csvout.o report/summary_md.o report/rundir.o report/items_csv.o \
             report/latex.o report/run_json.o report/run_record.o
 CLI_O     = cli/main.o cli/util.o cli/signals.o cli/run_output.o cli/cmd_score.o \
-            cli/cmd_rerun.o
+            cli/cmd_rerun.o cli/cmd_suites.o cli/cmd_fetch.o
 
-LIB_O = $(addprefix $(BUILD)/obj/,$(COMMON_O) $(VECTORS_O) $(SUITES_O) \
+LIB_O = $(addprefix $(BUILD)/obj/,$(COMMON_O) $(VECTORS_O) $(SUITES_O) $(FETCH_O) \
           $(SCORE_O) $(STATS_O) $(EVAL_O) $(REPORT_O))
 BIN_O = $(addprefix $(BUILD)/obj/,$(CLI_O))
 
@@ -116,6 +119,22 @@ $(BUILD)/.deps-ok: scripts/deps.list scripts/check-deps
 $(BUILD)/obj/%.o: src/%.c | deps
 	@mkdir -p $(@D)
 	$(CC) $(CPPFLAGS) $(CFLAGS) -MMD -MP -c $< -o $@
+
+# The manifest of known suites, compiled into the library as a byte array
+# (od is in coreutils, so no extra tool is needed).
+MANIFEST_CSV = benchmarks-manifest/suites.csv
+$(BUILD)/gen/manifest_csv.c: $(MANIFEST_CSV)
+	@mkdir -p $(@D)
+	@{ printf '/* Generated from %s by the Makefile; do not edit. */\n#include <stddef.h>\n' '$<'; \
+	  printf '__attribute__((visibility("hidden"))) extern const char vg_manifest_builtin[];\n'; \
+	  printf '__attribute__((visibility("hidden"))) extern const size_t vg_manifest_builtin_len;\n'; \
+	  printf 'const char vg_manifest_builtin[] = {\n'; \
+	  od -An -v -tx1 $< | sed 's/ \([0-9a-f][0-9a-f]\)/0x\1,/g'; \
+	  printf '0};\nconst size_t vg_manifest_builtin_len = sizeof vg_manifest_builtin - 1;\n'; } > $@.tmp
+	@mv $@.tmp $@
+$(BUILD)/obj/gen/manifest_csv.o: $(BUILD)/gen/manifest_csv.c
+	@mkdir -p $(@D)
+	$(CC) $(CPPFLAGS) $(CFLAGS) -c $< -o $@
 
 $(LIB): $(LIB_O)
 	@rm -f $@

@@ -103,6 +103,7 @@ typedef struct vg_run_record {
     char *tool_version;
     char *cwd;
     char **argv;           /* argc entries; argv[0] is the program name */
+    char *data_dir;        /* options.data: the data directory read, or NULL */
     size_t argc;
     char **files;          /* every input file recorded (vectors and suites) */
     char **sha256;         /* its recorded hash ("" when not hashed) */

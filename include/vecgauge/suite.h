@@ -86,6 +86,8 @@ typedef struct vg_suite {
     vg_suite_stats stats;
     char layout_detected[128]; /* e.g. "tab, 3+ columns, no header" */
     void *priv_;               /* the arena; not API */
+    const char *variant;       /* the manifest variant read (vg_suite_read_entry),
+                                  "" for a file read directly */
 } vg_suite;
 
 /* Free a suite and every string it holds. NULL does nothing. */
@@ -121,13 +123,156 @@ typedef enum vg_analogy_layout {
     VG_ANALOGY_SPLIT = 4       /* a questions file "a b c" + an answers file */
 } vg_analogy_layout;
 
-/* Read an analogy file. For VG_ANALOGY_RELATION, path may be a directory
- * (every *.txt in it, sorted by name, one section each) or a file. For
- * VG_ANALOGY_SPLIT, answers_path names the answers file. Ownership and
- * errors as for vg_suite_read_pairs. */
+/* Read an analogy file.
+ * - VG_ANALOGY_AUTO detects the layout: a directory is read as relation
+ *   files; a given answers_path means the split layout; otherwise the
+ *   first lines decide (a ': name' line: sectioned; four words: four
+ *   columns; 'word<TAB>answers': one relation file; three words: a
+ *   questions file, whose answers file is answers_path or, for a path
+ *   ending in ".questions", the ".answers" file beside it).
+ * - VG_ANALOGY_RELATION: path is a file, or a directory searched (four
+ *   levels deep) for *.txt files other than README/licence files, sorted
+ *   by relative path, one section each, named by the file name without
+ *   ".txt" and grouped by the folder holding it (NULL at the top). Each
+ *   line is "word<TAB>answer1/answer2/..."; the questions are all ordered
+ *   pairs (i, j) of distinct lines: a = word i, b = first answer of i,
+ *   c = word j, answers = every answer of line j (line = line of j).
+ *   More than 2,000,000 questions in all is VG_ELIMIT.
+ * - VG_ANALOGY_SPLIT: "a b c" lines in path, the answer of each in the
+ *   same position of answers_path ("d" or "label d"); a count mismatch
+ *   is VG_ETRUNCATED naming the shorter file.
+ * stats.duplicates counts questions equal (a, b, c, first answer) to an
+ * earlier one. Ownership and errors as for vg_suite_read_pairs. */
 VG_API vg_status vg_suite_read_analogies(const char *path, const char *answers_path,
                                          const char *id, vg_analogy_layout layout,
                                          vg_suite **out, vg_error *err);
+
+/* "auto", "sectioned", "four-column", "relation", "split". Never NULL. */
+VG_API const char *vg_analogy_layout_name(vg_analogy_layout layout);
+
+/* Parse a name as vg_analogy_layout_name prints it; VG_EINVAL if unknown. */
+VG_API vg_status vg_analogy_layout_parse(const char *name, vg_analogy_layout *out);
+
+/* Set the group of every section of s from rule, a list of
+ * "PATTERN=GROUP" separated by ';' where PATTERN is a shell wildcard
+ * (fnmatch) over the section name; the first matching pattern wins and a
+ * section that matches none keeps its group. "gram*=syntactic;*=semantic"
+ * is the customary split of the Google analogy sections. An empty or NULL
+ * rule does nothing. Returns VG_EINVAL (message naming the part) for a
+ * part without '=', VG_ENOMEM on allocation failure. */
+VG_API vg_status vg_suite_set_groups(vg_suite *s, const char *rule, vg_error *err);
+
+/* ---- The manifest of known public suites --------------------------------
+ * benchmarks-manifest/suites.csv (compiled into the library; see its
+ * README.md for the columns) describes each known suite: one row per
+ * known copy of its files (a "variant": the creators' distribution, a
+ * widely circulated reworked copy, ...), the first row of an id carrying
+ * the suite's own fields. */
+
+/* One known copy of a suite's files and how to read it. */
+typedef struct vg_suite_variant {
+    const char *name;            /* "official", "reworked", ... */
+    const char *const *files;    /* n_files names under <data>/<id>/; a name
+                                    ending in '/' is a directory */
+    const char *const *members;  /* n_files archive members ("" when the
+                                    download is the file itself) */
+    const char *const *sha256;   /* n_files lower-case hex digests, "" when
+                                    not pinned */
+    size_t n_files;
+    vg_pairs_layout pairs;       /* similarity: how files[0] is read */
+    vg_analogy_layout analogy;   /* analogy: the layout */
+    const char *url;             /* download, "" when none is known */
+    const char *download_sha256; /* digest of the download, "" if not pinned */
+    const char *notes;
+    uint64_t manifest_line;      /* the row's line in the manifest */
+} vg_suite_variant;
+
+/* One known suite. Strings are never NULL ("" when not given). */
+typedef struct vg_suite_entry {
+    const char *id;              /* also its folder in the data directory */
+    vg_task task;
+    const char *title;
+    const char *language;        /* ISO 639-1, e.g. "en" */
+    double scale_min, scale_max; /* rating scale; NaN when not given */
+    size_t published_items;      /* size published with the dataset; 0 if unknown */
+    const char *licence;
+    const char *citation;
+    const char *groups;          /* section groups, as for vg_suite_set_groups */
+    const vg_suite_variant *variants;
+    size_t n_variants;           /* >= 1 */
+} vg_suite_entry;
+
+typedef struct vg_manifest vg_manifest;
+
+/* Load a manifest: path, or the built-in one when path is NULL. On
+ * success *out owns a new manifest (free with vg_manifest_free). Errors
+ * (VG_EIO, VG_EFORMAT for an unknown column, a missing id, a bad number
+ * or layout, a repeated variant, VG_ENOMEM) name the manifest and line. */
+VG_API vg_status vg_manifest_load(const char *path, vg_manifest **out, vg_error *err);
+
+/* Parse a manifest from text[0..len); name is used in errors. As above. */
+VG_API vg_status vg_manifest_parse(const char *text, size_t len, const char *name,
+                                   vg_manifest **out, vg_error *err);
+
+/* NULL does nothing. Invalidates every entry obtained from m. */
+VG_API void vg_manifest_free(vg_manifest *m);
+
+/* Number of suites and the i-th one (i < count), in manifest order. */
+VG_API size_t vg_manifest_count(const vg_manifest *m);
+VG_API const vg_suite_entry *vg_manifest_get(const vg_manifest *m, size_t i);
+
+/* The suite with this id, or NULL. */
+VG_API const vg_suite_entry *vg_manifest_find(const vg_manifest *m, const char *id);
+
+/* ---- The data directory --------------------------------------------------
+ * Suite files live at <data>/<suite id>/<file name as distributed>. */
+
+/* Resolve the data directory into buf: dir when non-NULL and non-empty,
+ * else $VECGAUGE_DATA, else $XDG_DATA_HOME/vecgauge, else
+ * $HOME/.local/share/vecgauge. *source (if non-NULL) gets where it came
+ * from ("--data", "VECGAUGE_DATA", "XDG_DATA_HOME", "HOME"). The
+ * directory need not exist. VG_EINVAL when none can be found (no HOME),
+ * VG_ELIMIT when the path does not fit in size bytes. */
+VG_API vg_status vg_data_dir(const char *dir, char *buf, size_t size, const char **source,
+                             vg_error *err);
+
+/* Where file f of variant v of e lives: <data_dir>/<id>/<files[f]>, into
+ * buf. VG_ELIMIT when it does not fit. */
+VG_API vg_status vg_suite_entry_path(const vg_suite_entry *e, size_t v, size_t f,
+                                     const char *data_dir, char *buf, size_t size,
+                                     vg_error *err);
+
+/* Which variant of e is present under data_dir: among the variants whose
+ * every file exists, the first whose pinned digests all match, else the
+ * first with nothing pinned, else the first. Returns its index, or
+ * (size_t)-1 when no variant is complete. Hashes the candidate files, so
+ * it reads them. */
+VG_API size_t vg_suite_entry_locate(const vg_suite_entry *e, const char *data_dir);
+
+/* Read suite e from data_dir through the variant vg_suite_entry_locate
+ * picks, with that variant's layout; the suite gets e's id, title and
+ * scale, its sections e's groups, and variant set. Ratings outside the
+ * scale are VG_EVALUE naming file and line. VG_ENOTFOUND when no variant
+ * is present (the message names the path expected for the first variant).
+ * Ownership as for vg_suite_read_pairs. */
+VG_API vg_status vg_suite_read_entry(const vg_suite_entry *e, const char *data_dir,
+                                     vg_suite **out, vg_error *err);
+
+/* Whether the files a suite was read from carry the digests pinned for
+ * its variant. */
+typedef enum vg_hash_state {
+    VG_HASH_NOT_PINNED = 0, /* no file of the variant has a pinned digest */
+    VG_HASH_MATCH = 1,      /* every pinned digest matches */
+    VG_HASH_MISMATCH = 2    /* some file differs from its pinned digest */
+} vg_hash_state;
+
+/* "not pinned", "match", "mismatch". Never NULL. */
+VG_API const char *vg_hash_state_name(vg_hash_state h);
+
+/* Compare s (read by vg_suite_read_entry from e) with its variant's pins.
+ * *bad (if non-NULL) gets the index into s->files of the first mismatch. */
+VG_API vg_hash_state vg_suite_entry_verify(const vg_suite_entry *e, const vg_suite *s,
+                                           size_t *bad);
 
 #ifdef __cplusplus
 }

@@ -7,6 +7,7 @@
  * The data flows through the stages in this order, one header each:
  *   vectors.h  load a vector set (or wrap an in-memory matrix)
  *   suite.h    read a benchmark suite (word pairs or analogy questions)
+ *   fetch.h    download the public suites into the data directory
  *   score.h    per-item scores of one vector set on one suite
  *   stats.h    correlations and intervals on plain arrays
  *   results.h  evaluate sets on suites: the table of scores
@@ -24,6 +25,7 @@
 #include "error.h"
 #include "vectors.h"
 #include "suite.h"
+#include "fetch.h"
 #include "score.h"
 #include "stats.h"
 #include "results.h"

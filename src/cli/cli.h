@@ -66,5 +66,7 @@ int vg_cli_interrupted(void);
 /* The commands. Each gets argv starting at the command name. */
 int vg_cmd_score(int argc, char **argv);
 int vg_cmd_rerun(int argc, char **argv);
+int vg_cmd_suites(int argc, char **argv);
+int vg_cmd_fetch(int argc, char **argv);
 
 #endif /* VG_CLI_H */

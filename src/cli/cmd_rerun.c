@@ -130,7 +130,7 @@ int vg_cmd_rerun(int argc, char **argv) {
     } else {
         snprintf(outbuf, sizeof outbuf, "%s", out);
     }
-    nargv = calloc(rec->argc + 3, sizeof *nargv);
+    nargv = calloc(rec->argc + 5, sizeof *nargv);
     if (!nargv) {
         vg_cli_fail("out of memory");
         goto done;

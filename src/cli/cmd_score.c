@@ -13,13 +13,22 @@
 
 static const char score_help[] =
     "Usage: vecgauge score [OPTION]... VECTORS...\n"
-    "Score one or more vector sets on word-pair suites and write a run directory.\n"
+    "Score one or more vector sets on word-pair and analogy suites and write a run\n"
+    "directory.\n"
     "\n"
     "A vector set is given as PATH or LABEL=PATH; without a label, the file name\n"
     "up to its first '.' is used.\n"
     "\n"
-    "Suites:\n"
+    "Suites (in the order given; with none of these, every known suite present\n"
+    "in the data directory):\n"
+    "  -s, --suite IDS        known suites by id, comma-separated ('vecgauge suites'\n"
+    "                         lists them); repeatable\n"
     "  -p, --pairs FILE       a word-pair file (word, word, rating); repeatable\n"
+    "  -a, --analogies FILE   an analogy file or folder of relation files, layout\n"
+    "                         detected; repeatable\n"
+    "      --data DIR         the data directory (default: $VECGAUGE_DATA, else\n"
+    "                         $XDG_DATA_HOME/vecgauge, else ~/.local/share/vecgauge)\n"
+    "      --manifest FILE    read this manifest instead of the built-in one\n"
     "\n"
     "Output:\n"
     "  -o, --out DIR          run directory to create (default: results/<UTC time>-<label>)\n"
@@ -35,17 +44,33 @@ static const char score_help[] =
     "Writes scores.csv, items.csv, missing.csv, summary.md, table.tex and run.json\n"
     "into the run directory and prints the headline table on standard output.\n";
 
+/* One suite as asked for on the command line. */
+typedef enum { SPEC_SUITE, SPEC_PAIRS, SPEC_ANALOGIES } spec_kind;
+typedef struct suite_spec {
+    spec_kind kind;
+    const char *arg;   /* an id (pointing into ids_buf) or a path */
+} suite_spec;
+
 typedef struct score_args {
-    const char **pairs;
-    size_t n_pairs;
+    suite_spec *specs;
+    size_t n_specs;
+    char **id_lists;   /* copies of --suite values, split in place */
+    size_t n_id_lists;
+    const char *data;
+    const char *manifest;
     const char *out;
     vg_eval_options eval;
+    char data_used[VG_ERROR_PATH_MAX]; /* the data directory read, "" if none */
 } score_args;
 
-enum { OPT_FOLD = 256, OPT_SEED, OPT_BOOT };
+enum { OPT_FOLD = 256, OPT_SEED, OPT_BOOT, OPT_DATA, OPT_MANIFEST };
 
 static const struct option long_opts[] = {
+    {"suite", required_argument, NULL, 's'},
     {"pairs", required_argument, NULL, 'p'},
+    {"analogies", required_argument, NULL, 'a'},
+    {"data", required_argument, NULL, OPT_DATA},
+    {"manifest", required_argument, NULL, OPT_MANIFEST},
     {"out", required_argument, NULL, 'o'},
     {"fold-case", no_argument, NULL, OPT_FOLD},
     {"seed", required_argument, NULL, OPT_SEED},
@@ -54,18 +79,34 @@ static const struct option long_opts[] = {
     {"help", no_argument, NULL, 'h'},
     {NULL, 0, NULL, 0}};
 
-/* Every distinct word of the similarity suites: the only rows a
- * similarity-only run needs to keep. Borrowed pointers into the suites. */
+/* Every word of the suites (pairs' words; questions' a, b, c and every
+ * answer): with the first analogy candidates, the only rows a run needs
+ * to keep. Borrowed pointers into the suites. */
 static const char **suite_words(vg_suite *const *suites, size_t n, size_t *count) {
     size_t total = 0;
-    for (size_t k = 0; k < n; k++) total += 2 * suites[k]->n_items;
+    for (size_t k = 0; k < n; k++) {
+        if (suites[k]->task == VG_TASK_SIMILARITY) {
+            total += 2 * suites[k]->n_items;
+        } else {
+            for (size_t i = 0; i < suites[k]->n_items; i++)
+                total += 3 + suites[k]->questions[i].n_answers;
+        }
+    }
     const char **w = calloc(total ? total : 1, sizeof *w);
     if (!w) return NULL;
     size_t m = 0;
     for (size_t k = 0; k < n; k++)
         for (size_t i = 0; i < suites[k]->n_items; i++) {
-            w[m++] = suites[k]->pairs[i].w1;
-            w[m++] = suites[k]->pairs[i].w2;
+            if (suites[k]->task == VG_TASK_SIMILARITY) {
+                w[m++] = suites[k]->pairs[i].w1;
+                w[m++] = suites[k]->pairs[i].w2;
+            } else {
+                const vg_question *q = &suites[k]->questions[i];
+                w[m++] = q->a;
+                w[m++] = q->b;
+                w[m++] = q->c;
+                for (size_t j = 0; j < q->n_answers; j++) w[m++] = q->answers[j];
+            }
         }
     *count = m;
     return w;
@@ -89,7 +130,130 @@ static size_t score_settings(score_args *a, vg_setting *st, char bufs[][32]) {
     n++;
     st[n] = (vg_setting){"fold-case", a->eval.score.fold_case ? "1" : "0", VG_SETTING_BOOL};
     n++;
+    /* The data directory actually read (from --data, $VECGAUGE_DATA or the
+     * XDG default), so that a rerun elsewhere reads the same one. */
+    if (a->data_used[0]) st[n++] = (vg_setting){"data", a->data_used, VG_SETTING_STRING};
+    if (a->manifest) st[n++] = (vg_setting){"manifest", a->manifest, VG_SETTING_STRING};
     return n;
+}
+
+static int add_spec(score_args *a, spec_kind kind, const char *arg) {
+    suite_spec *ns = realloc(a->specs, (a->n_specs + 1) * sizeof *ns);
+    if (!ns) return -1;
+    a->specs = ns;
+    a->specs[a->n_specs++] = (suite_spec){kind, arg};
+    return 0;
+}
+
+/* --suite a,b,c: one spec per id (empty parts are ignored). */
+static int add_suite_ids(score_args *a, const char *list) {
+    char **nl = realloc(a->id_lists, (a->n_id_lists + 1) * sizeof *nl);
+    if (!nl) return -1;
+    a->id_lists = nl;
+    char *copy = strdup(list);
+    if (!copy) return -1;
+    a->id_lists[a->n_id_lists++] = copy;
+    for (char *tok = strtok(copy, ","); tok; tok = strtok(NULL, ","))
+        if (add_spec(a, SPEC_SUITE, tok) != 0) return -1;
+    return 0;
+}
+
+/* Read every suite asked for (or, with none asked for, every known suite
+ * present in the data directory) into *out. Returns an exit status. */
+static int read_suites(score_args *a, vg_suite ***out, size_t *n_out) {
+    *out = NULL;
+    *n_out = 0;
+    vg_error err;
+    vg_error_clear(&err);
+    vg_manifest *m = NULL;
+    char data[VG_ERROR_PATH_MAX];
+    const char *src = "";
+    int need_manifest = a->n_specs == 0;
+    for (size_t i = 0; i < a->n_specs; i++) need_manifest |= a->specs[i].kind == SPEC_SUITE;
+    int rc = VG_EXIT_FAIL;
+    vg_suite **suites = NULL;
+    size_t n = 0;
+    if (need_manifest) {
+        if (vg_manifest_load(a->manifest, &m, &err) != VG_OK ||
+            vg_data_dir(a->data, data, sizeof data, &src, &err) != VG_OK) {
+            vg_cli_error(&err);
+            goto done;
+        }
+        snprintf(a->data_used, sizeof a->data_used, "%s", data);
+    }
+    size_t cap = a->n_specs ? a->n_specs : vg_manifest_count(m);
+    suites = calloc(cap ? cap : 1, sizeof *suites);
+    if (!suites) {
+        vg_cli_fail("out of memory");
+        goto done;
+    }
+    if (a->n_specs == 0) {
+        for (size_t i = 0; i < vg_manifest_count(m); i++) {
+            const vg_suite_entry *e = vg_manifest_get(m, i);
+            if (vg_suite_entry_locate(e, data) == (size_t)-1) continue;
+            if (vg_suite_read_entry(e, data, &suites[n], &err) != VG_OK) {
+                vg_cli_error(&err);
+                goto done;
+            }
+            n++;
+        }
+        if (n == 0) {
+            vg_cli_fail("no suite given, and no known suite is in the data directory %s (from %s); "
+                        "download them with 'vecgauge fetch all', or give --pairs FILE or "
+                        "--analogies FILE",
+                        data, src);
+            goto done;
+        }
+    }
+    for (size_t i = 0; i < a->n_specs; i++) {
+        const suite_spec *sp = &a->specs[i];
+        vg_status st;
+        if (sp->kind == SPEC_SUITE) {
+            const vg_suite_entry *e = vg_manifest_find(m, sp->arg);
+            if (!e) {
+                rc = vg_cli_usage_error("score", "unknown suite '%s' ('vecgauge suites' lists the "
+                                        "known ones)", sp->arg);
+                goto done;
+            }
+            st = vg_suite_read_entry(e, data, &suites[n], &err);
+        } else if (sp->kind == SPEC_PAIRS) {
+            st = vg_suite_read_pairs(sp->arg, NULL, NULL, &suites[n], &err);
+        } else {
+            st = vg_suite_read_analogies(sp->arg, NULL, NULL, VG_ANALOGY_AUTO, &suites[n], &err);
+        }
+        if (st != VG_OK) {
+            vg_cli_error(&err);
+            goto done;
+        }
+        n++;
+    }
+    /* A copy that differs from the pinned digest is scored, but its
+     * numbers may not compare with published ones: say so. */
+    for (size_t k = 0; m && k < n; k++) {
+        const vg_suite_entry *e = vg_manifest_find(m, suites[k]->id);
+        size_t bad = 0;
+        if (e && *suites[k]->variant && vg_suite_entry_verify(e, suites[k], &bad) == VG_HASH_MISMATCH)
+            fprintf(stderr, "%s: warning: %s differs from the sha256 pinned for suite %s; its "
+                    "scores may not compare with published ones\n",
+                    vg_cli_progname, suites[k]->files[bad].path, suites[k]->id);
+    }
+    for (size_t k = 0; k < n; k++)
+        for (size_t j = 0; j < k; j++)
+            if (strcmp(suites[k]->id, suites[j]->id) == 0) {
+                rc = vg_cli_usage_error("score", "the suite '%s' is given twice", suites[k]->id);
+                goto done;
+            }
+    rc = VG_EXIT_OK;
+done:
+    vg_manifest_free(m);
+    if (rc != VG_EXIT_OK) {
+        for (size_t k = 0; k < n; k++) vg_suite_free(suites[k]);
+        free(suites);
+        return rc;
+    }
+    *out = suites;
+    *n_out = n;
+    return rc;
 }
 
 int vg_cmd_score(int argc, char **argv) {
@@ -97,18 +261,23 @@ int vg_cmd_score(int argc, char **argv) {
     memset(&a, 0, sizeof a);
     vg_eval_options_init(&a.eval);
     int rc = VG_EXIT_FAIL;
-    a.pairs = calloc((size_t)argc, sizeof *a.pairs);
-    if (!a.pairs) {
-        vg_cli_fail("out of memory");
-        return VG_EXIT_FAIL;
-    }
     optind = 1;
     opterr = 0;
     int c;
     uint64_t u;
-    while ((c = getopt_long(argc, argv, ":p:o:j:h", long_opts, NULL)) != -1) {
+    while ((c = getopt_long(argc, argv, ":s:p:a:o:j:h", long_opts, NULL)) != -1) {
         switch (c) {
-        case 'p': a.pairs[a.n_pairs++] = optarg; break;
+        case 's':
+        case 'p':
+        case 'a':
+            if ((c == 's' ? add_suite_ids(&a, optarg)
+                          : add_spec(&a, c == 'p' ? SPEC_PAIRS : SPEC_ANALOGIES, optarg)) != 0) {
+                vg_cli_fail("out of memory");
+                goto done;
+            }
+            break;
+        case OPT_DATA: a.data = optarg; break;
+        case OPT_MANIFEST: a.manifest = optarg; break;
         case 'o': a.out = optarg; break;
         case OPT_FOLD: a.eval.score.fold_case = 1; break;
         case OPT_SEED:
@@ -150,14 +319,14 @@ int vg_cmd_score(int argc, char **argv) {
         rc = vg_cli_usage_error("score", "no vector set given");
         goto done;
     }
-    if (a.n_pairs == 0) {
-        rc = vg_cli_usage_error("score", "no suite given (use --pairs FILE)");
-        goto done;
-    }
 
     vg_error err;
     vg_error_clear(&err);
-    vg_suite **suites = calloc(a.n_pairs, sizeof *suites);
+    vg_suite **suites = NULL;
+    size_t n_suites = 0;
+    rc = read_suites(&a, &suites, &n_suites);
+    if (rc != VG_EXIT_OK) goto done;
+    rc = VG_EXIT_FAIL;
     vg_vector_set *sets = calloc((size_t)n_sets, sizeof *sets);
     char **labels = calloc((size_t)n_sets, sizeof *labels);
     char **paths = calloc((size_t)n_sets, sizeof *paths);
@@ -165,15 +334,9 @@ int vg_cmd_score(int argc, char **argv) {
     const char **words = NULL;
     vg_results *res = NULL;
     char *cmdline = NULL;
-    if (!suites || !sets || !labels || !paths || !vecs) {
+    if (!sets || !labels || !paths || !vecs) {
         vg_cli_fail("out of memory");
         goto cleanup;
-    }
-    for (size_t k = 0; k < a.n_pairs; k++) {
-        if (vg_suite_read_pairs(a.pairs[k], NULL, NULL, &suites[k], &err) != VG_OK) {
-            vg_cli_error(&err);
-            goto cleanup;
-        }
     }
     for (int i = 0; i < n_sets; i++) {
         if (vg_cli_vector_spec(argv[optind + i], &labels[i], &paths[i]) != 0) {
@@ -190,11 +353,13 @@ int vg_cmd_score(int argc, char **argv) {
             }
     }
     size_t n_words = 0;
-    words = suite_words(suites, a.n_pairs, &n_words);
+    words = suite_words(suites, n_suites, &n_words);
     if (!words) {
         vg_cli_fail("out of memory");
         goto cleanup;
     }
+    int has_analogy = 0;
+    for (size_t k = 0; k < n_suites; k++) has_analogy |= suites[k]->task == VG_TASK_ANALOGY;
     for (int i = 0; i < n_sets; i++) {
         vg_load_options lo;
         vg_load_options_init(&lo);
@@ -202,13 +367,20 @@ int vg_cmd_score(int argc, char **argv) {
         lo.fold_case = a.eval.score.fold_case;
         lo.keep_words = words;
         lo.n_keep_words = n_words;
+        /* Analogy answers are searched among the first analogy_vocab rows
+         * of a set, so those rows are kept whole; with analogy_vocab 0
+         * (every row is a candidate) nothing may be filtered out. */
+        if (has_analogy) {
+            lo.keep_first = a.eval.score.analogy_vocab;
+            if (lo.keep_first == 0) lo.keep_words = NULL;
+        }
         if (vg_vectors_load(paths[i], &lo, &vecs[i], &err) != VG_OK) {
             vg_cli_error(&err);
             goto cleanup;
         }
         sets[i] = (vg_vector_set){labels[i], paths[i], vecs[i]};
     }
-    if (vg_evaluate(sets, (size_t)n_sets, (const vg_suite *const *)suites, a.n_pairs, &a.eval, &res,
+    if (vg_evaluate(sets, (size_t)n_sets, (const vg_suite *const *)suites, n_suites, &a.eval, &res,
                     &err) != VG_OK) {
         vg_cli_error(&err);
         goto cleanup;
@@ -254,7 +426,7 @@ cleanup:
     vg_results_free(res);
     free(words);
     for (int i = 0; vecs && i < n_sets; i++) vg_vectors_free(vecs[i]);
-    for (size_t k = 0; suites && k < a.n_pairs; k++) vg_suite_free(suites[k]);
+    for (size_t k = 0; suites && k < n_suites; k++) vg_suite_free(suites[k]);
     for (int i = 0; labels && i < n_sets; i++) free(labels[i]);
     for (int i = 0; paths && i < n_sets; i++) free(paths[i]);
     free(vecs);
@@ -263,6 +435,8 @@ cleanup:
     free(sets);
     free(suites);
 done:
-    free(a.pairs);
+    free(a.specs);
+    for (size_t i = 0; i < a.n_id_lists; i++) free(a.id_lists[i]);
+    free(a.id_lists);
     return rc;
 }

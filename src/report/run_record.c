@@ -19,6 +19,7 @@ void vg_run_record_free(vg_run_record *rec) {
     vg_free(rec->sha256);
     vg_free(rec->tool_version);
     vg_free(rec->cwd);
+    vg_free(rec->data_dir);
     vg_free(rec);
 }
 
@@ -92,6 +93,12 @@ vg_status vg_run_record_read(const char *path, vg_run_record **out, vg_error *er
             goto done;
         }
         rec->argc++;
+    }
+    json_t *opts = json_object_get(root, "options");
+    json_t *data = json_is_object(opts) ? json_object_get(opts, "data") : NULL;
+    if (json_is_string(data) && !(rec->data_dir = vg_strdup(json_string_value(data)))) {
+        st = vg_error_set(err, VG_ENOMEM, path, 0, "out of memory");
+        goto done;
     }
     json_t *sets = json_object_get(root, "vector_sets");
     json_t *suites = json_object_get(root, "suites");

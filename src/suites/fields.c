@@ -48,6 +48,22 @@ static void csv_row_cb(int c, void *data) {
  * tab-separated file must keep tabs as delimiters, so only spaces pad. */
 static int is_space_only(unsigned char c) { return c == ' '; }
 
+/* 1 if some field of line starts (after padding spaces) with '"'. */
+static int opens_quote(const char *line, size_t len, char delim) {
+    int at_start = 1;
+    for (size_t i = 0; i < len; i++) {
+        char c = line[i];
+        if (c == delim) {
+            at_start = 1;
+        } else if (c == '"' && at_start) {
+            return 1;
+        } else if (c != ' ') {
+            at_start = 0;
+        }
+    }
+    return 0;
+}
+
 vg_status vg_fields_split(vg_fields *f, const char *line, size_t len, char delim,
                           const char *path, uint64_t lineno, vg_error *err) {
     f->n = 0;
@@ -62,10 +78,25 @@ vg_status vg_fields_split(vg_fields *f, const char *line, size_t len, char delim
             while (i < len && line[i] != ' ' && line[i] != '\t') i++;
             add_field(f, line + b, i - b);
         }
+    } else if (!opens_quote(line, len, delim)) {
+        /* No field starts with a double quote: nothing for libcsv to
+         * unquote, and a quote inside a word (12" or a stray one) stays
+         * literal instead of being a parse error. */
+        size_t b = 0;
+        for (size_t i = 0; i <= len; i++) {
+            if (i == len || line[i] == delim) {
+                size_t e = i;
+                while (b < e && line[b] == ' ') b++;
+                while (e > b && line[e - 1] == ' ') e--;
+                add_field(f, line + b, e - b);
+                b = i + 1;
+            }
+        }
+        while (f->n > 0 && f->flen[f->n - 1] == 0) f->n--;
     } else {
         if (!f->csv) {
             f->csv = vg_malloc(sizeof(struct csv_parser));
-            if (!f->csv || csv_init(f->csv, CSV_STRICT) != 0) {
+            if (!f->csv || csv_init(f->csv, CSV_STRICT | CSV_STRICT_FINI) != 0) {
                 vg_free(f->csv);
                 f->csv = NULL;
                 return vg_error_set(err, VG_ENOMEM, path, lineno, "out of memory");
@@ -76,7 +107,9 @@ vg_status vg_fields_split(vg_fields *f, const char *line, size_t len, char delim
         csv_set_delim(p, (unsigned char)delim);
         if (csv_parse(p, line, len, csv_field_cb, csv_row_cb, f) != len ||
             csv_fini(p, csv_field_cb, csv_row_cb, f) != 0) {
-            const char *why = csv_strerror(csv_error(p));
+            int code = csv_error(p);
+            const char *why = code == CSV_EPARSE ? "a quote inside a field, or a quoted field not closed"
+                                                 : csv_strerror(code);
             /* Reset the parser for the next line after a failure. */
             csv_free(p);
             vg_free(f->csv);
@@ -102,12 +135,6 @@ void vg_fields_free(vg_fields *f) {
     vg_free(f->flen);
     vg_free(f->buf);
     memset(f, 0, sizeof *f);
-}
-
-char vg_fields_guess_delim(const char *line, size_t len) {
-    if (memchr(line, '\t', len)) return '\t';
-    if (memchr(line, ',', len)) return ',';
-    return ' ';
 }
 
 int vg_parse_double(const char *s, size_t n, double *out) {

@@ -1,9 +1,11 @@
 /* fields.h - splitting one line of a suite file into fields.
  * Part of vecgauge; MIT licence, see LICENSE.
  *
- * Tab- and comma-separated lines go through libcsv, so quoted fields
- * ("New York",...) and doubled quotes are handled by the library rather
- * than by hand; blank-separated lines are split on runs of spaces/tabs.
+ * Tab- and comma-separated lines with a field that opens with a double
+ * quote go through libcsv, so quoted fields ("New York",...) and doubled
+ * quotes are handled by the library rather than by hand; without one,
+ * the line is cut at each delimiter and a quote inside a word (12")
+ * stays literal. Blank-separated lines are split on runs of spaces/tabs.
  */
 #ifndef VG_FIELDS_H
 #define VG_FIELDS_H
@@ -26,18 +28,16 @@ typedef struct vg_fields {
 
 #define VG_FIELDS_INIT {0}
 
-/* Split line (len bytes) by delim: '\t' or ',' through libcsv, ' ' for
- * runs of blanks (leading and trailing blanks ignored). Returns VG_OK,
+/* Split line (len bytes) by delim: '\t' or ',' (through libcsv when a
+ * field opens with a quote; spaces around fields trimmed, trailing empty
+ * fields dropped), ' ' for runs of blanks (leading and trailing blanks
+ * ignored). Returns VG_OK,
  * VG_ENOMEM, or VG_EFORMAT for a malformed quoted field (err names path
  * and line). */
 VG_INTERNAL vg_status vg_fields_split(vg_fields *f, const char *line, size_t len, char delim,
                                       const char *path, uint64_t lineno, vg_error *err);
 
 VG_INTERNAL void vg_fields_free(vg_fields *f);
-
-/* Guess the delimiter of a data line: tab if it has one, else comma if it
- * has one, else blanks. */
-VG_INTERNAL char vg_fields_guess_delim(const char *line, size_t len);
 
 /* Parse a whole field as a finite double. 0 on success, -1 otherwise. */
 VG_INTERNAL int vg_parse_double(const char *s, size_t n, double *out);

@@ -49,6 +49,7 @@ vg_suite *vg_suite_new(vg_task task, const char *id) {
     s->scale_min = s->scale_max = NAN;
     s->id = vg_strdup(id ? id : "");
     s->title = vg_strdup("");
+    s->variant = "";
     if (!s->id || !s->title) {
         vg_suite_free(s);
         return NULL;
@@ -153,6 +154,49 @@ vg_status vg_suite_count_pair_stats(vg_suite *s, vg_error *err) {
                    vg_strmap_get(&seen, r, l1 + l2 + 1) != (size_t)-1) {
             s->stats.reversed_duplicates++;
         }
+    }
+done:
+    vg_strmap_free(&seen);
+    vg_arena_free(&keys);
+    return st;
+}
+
+vg_status vg_suite_count_question_stats(vg_suite *s, vg_error *err) {
+    vg_strmap seen = VG_STRMAP_INIT;
+    vg_arena keys = VG_ARENA_INIT;
+    vg_status st = VG_OK;
+    if (vg_strmap_reserve(&seen, s->n_items) != 0) {
+        st = vg_error_set(err, VG_ENOMEM, NULL, 0, "out of memory");
+        goto done;
+    }
+    for (size_t i = 0; i < s->n_items; i++) {
+        const vg_question *q = &s->questions[i];
+        const char *w[4] = {q->a, q->b, q->c, q->answers[0]};
+        size_t l[4], total = 0;
+        int multi = 0;
+        for (int k = 0; k < 4; k++) {
+            l[k] = strlen(w[k]);
+            total += l[k] + 1;
+            multi |= strpbrk(w[k], " _") != NULL;
+        }
+        s->stats.multiword += multi;
+        /* Key "a\0b\0c\0d": the NUL cannot occur inside a word. */
+        char *k = vg_arena_alloc(&keys, total);
+        if (!k) {
+            st = vg_error_set(err, VG_ENOMEM, NULL, 0, "out of memory");
+            goto done;
+        }
+        size_t off = 0;
+        for (int j = 0; j < 4; j++) {
+            memcpy(k + off, w[j], l[j] + 1);
+            off += l[j] + 1;
+        }
+        int ins = vg_strmap_put(&seen, k, total, i, NULL);
+        if (ins < 0) {
+            st = vg_error_set(err, VG_ENOMEM, NULL, 0, "out of memory");
+            goto done;
+        }
+        if (ins == 0) s->stats.duplicates++;
     }
 done:
     vg_strmap_free(&seen);

@@ -36,6 +36,36 @@ VG_INTERNAL vg_status vg_suite_add_file(vg_suite *s, const char *path, vg_error 
 /* Count duplicates, reversed duplicates and self-pairs of a pair suite. */
 VG_INTERNAL vg_status vg_suite_count_pair_stats(vg_suite *s, vg_error *err);
 
+/* Count duplicate questions (the same a, b, c and first answer as an
+ * earlier one, in any section) and multi-word entries of an analogy suite. */
+VG_INTERNAL vg_status vg_suite_count_question_stats(vg_suite *s, vg_error *err);
+
+/* Start a new section named name[0..n) at the current item. */
+VG_INTERNAL vg_status vg_suite_open_section(vg_suite *s, const char *name, size_t n,
+                                            const char *path, uint64_t lineno, vg_error *err);
+
+/* Append the question w[0] : w[1] :: w[2] : ? (words copied, interned)
+ * with answers (already in the suite's arena, n_answers >= 1) to the
+ * last section. */
+VG_INTERNAL vg_status vg_suite_add_abc(vg_suite *s, const char *const w[3], const size_t wlen[3],
+                                       const char *const *answers, size_t n_answers,
+                                       uint64_t lineno, const char *path, vg_error *err);
+
+/* The relation layout (relation.c): path is one relation file, or (is_dir)
+ * a directory searched for *.txt relation files, one section each. */
+VG_INTERNAL vg_status vg_suite_read_relation(const char *path, int is_dir, vg_suite *s,
+                                             vg_error *err);
+
+/* The split layout (split.c): questions "a b c" in qpath, answers in apath. */
+VG_INTERNAL vg_status vg_suite_read_split(const char *qpath, const char *apath, vg_suite *s,
+                                          vg_error *err);
+
+/* The built-in manifest: benchmarks-manifest/suites.csv, compiled in by
+ * the Makefile (build/gen/manifest_csv.c) so that the tool needs no file
+ * at run time. Not NUL-terminated. */
+VG_INTERNAL extern const char vg_manifest_builtin[];
+VG_INTERNAL extern const size_t vg_manifest_builtin_len;
+
 /* The file name part of path (after the last '/'). */
 VG_INTERNAL const char *vg_path_basename(const char *path);
 
