@@ -55,8 +55,9 @@ COMMON_O  = common/error.o common/alloc.o common/arena.o common/strmap.o \
 VECTORS_O = vectors/vectors.o vectors/load.o vectors/text.o
 SUITES_O  = suites/suite.o suites/fields.o suites/pairs.o suites/analogies.o
 SCORE_O   = score/similarity.o score/analogy.o
-STATS_O   = stats/rank.o stats/correlation.o stats/resample.o
-EVAL_O    = eval/results.o eval/evaluate.o eval/similarity_rows.o
+STATS_O   = stats/rank.o stats/correlation.o stats/kendall.o stats/interval.o \
+            stats/resample.o stats/corrboot.o stats/agreement.o
+EVAL_O    = eval/results.o eval/evaluate.o eval/similarity_rows.o eval/agreement.o
 REPORT_O  = report/csvout.o report/summary_md.o report/rundir.o
 CLI_O     = cli/main.o cli/util.o cli/cmd_score.o
 
