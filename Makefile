@@ -58,7 +58,7 @@ SCORE_O   = score/similarity.o score/analogy.o
 STATS_O   = stats/rank.o stats/correlation.o stats/kendall.o stats/interval.o \
             stats/resample.o stats/corrboot.o stats/agreement.o
 EVAL_O    = eval/results.o eval/evaluate.o eval/similarity_rows.o eval/agreement.o
-REPORT_O  = report/csvout.o report/summary_md.o report/rundir.o
+REPORT_O  = report/csvout.o report/summary_md.o report/rundir.o report/intervals.o
 CLI_O     = cli/main.o cli/util.o cli/cmd_score.o
 
 LIB_O = $(addprefix $(BUILD)/obj/,$(COMMON_O) $(VECTORS_O) $(SUITES_O) \

@@ -26,13 +26,17 @@ static const char score_help[] =
     "Scoring:\n"
     "      --fold-case        retry missing words Unicode case-folded\n"
     "      --seed N           random seed for resampling (default %u)\n"
-    "      --bootstrap N      bootstrap replicates (default %u)\n"
+    "      --bootstrap N      bootstrap replicates over the pairs (default %u; 0: none)\n"
+    "      --ci LEVEL         confidence level of every interval, 0 < LEVEL < 1\n"
+    "                         (default %g)\n"
     "  -j, --threads N        threads (default: one per CPU)\n"
     "\n"
     "  -h, --help             show this help and exit\n"
     "\n"
-    "Writes scores.csv, summary.md and missing.csv into the run directory and\n"
-    "prints the headline table on standard output.\n";
+    "Writes scores.csv, intervals.csv, agreement.csv, summary.md and missing.csv\n"
+    "into the run directory and prints the headline table on standard output.\n"
+    "Intervals are BCa bootstrap intervals (percentile and Fisher-z ones in\n"
+    "intervals.csv); the same seed gives the same numbers for any --threads.\n";
 
 typedef struct score_args {
     const char **pairs;
@@ -41,7 +45,7 @@ typedef struct score_args {
     vg_eval_options eval;
 } score_args;
 
-enum { OPT_FOLD = 256, OPT_SEED, OPT_BOOT };
+enum { OPT_FOLD = 256, OPT_SEED, OPT_BOOT, OPT_CI };
 
 static const struct option long_opts[] = {
     {"pairs", required_argument, NULL, 'p'},
@@ -49,6 +53,7 @@ static const struct option long_opts[] = {
     {"fold-case", no_argument, NULL, OPT_FOLD},
     {"seed", required_argument, NULL, OPT_SEED},
     {"bootstrap", required_argument, NULL, OPT_BOOT},
+    {"ci", required_argument, NULL, OPT_CI},
     {"threads", required_argument, NULL, 'j'},
     {"help", no_argument, NULL, 'h'},
     {NULL, 0, NULL, 0}};
@@ -79,6 +84,16 @@ static int write_run(const char *dir, const vg_results *res, const vg_provenance
     if (st == VG_OK && (st = vg_rundir_open(rd, "scores.csv", &fp, &err)) == VG_OK) {
         st = vg_report_scores_csv(res, fp, vg_rundir_file(rd, "scores.csv"), &err);
         vg_status c = vg_report_close(fp, vg_rundir_file(rd, "scores.csv"), &err);
+        if (st == VG_OK) st = c;
+    }
+    if (st == VG_OK && (st = vg_rundir_open(rd, "intervals.csv", &fp, &err)) == VG_OK) {
+        st = vg_report_intervals_csv(res, fp, vg_rundir_file(rd, "intervals.csv"), &err);
+        vg_status c = vg_report_close(fp, vg_rundir_file(rd, "intervals.csv"), &err);
+        if (st == VG_OK) st = c;
+    }
+    if (st == VG_OK && (st = vg_rundir_open(rd, "agreement.csv", &fp, &err)) == VG_OK) {
+        st = vg_report_agreement_csv(res, fp, vg_rundir_file(rd, "agreement.csv"), &err);
+        vg_status c = vg_report_close(fp, vg_rundir_file(rd, "agreement.csv"), &err);
         if (st == VG_OK) st = c;
     }
     if (st == VG_OK && (st = vg_rundir_open(rd, "summary.md", &fp, &err)) == VG_OK) {
@@ -137,6 +152,16 @@ int vg_cmd_score(int argc, char **argv) {
             }
             a.eval.bootstrap = (size_t)u;
             break;
+        case OPT_CI: {
+            double lv;
+            if (vg_cli_parse_double(optarg, 0, 1, &lv) != 0 || lv <= 0 || lv >= 1) {
+                rc = vg_cli_usage_error("score", "--ci needs a level between 0 and 1 (e.g. 0.95), got '%s'",
+                                        optarg);
+                goto done;
+            }
+            a.eval.ci = lv;
+            break;
+        }
         case 'j':
             if (vg_cli_parse_u64(optarg, 1, 1024, &u) != 0) {
                 rc = vg_cli_usage_error("score", "--threads needs an integer 1..1024, got '%s'", optarg);
@@ -145,7 +170,8 @@ int vg_cmd_score(int argc, char **argv) {
             a.eval.score.threads = (unsigned)u;
             break;
         case 'h':
-            printf(score_help, (unsigned)VG_DEFAULT_SEED, (unsigned)VG_DEFAULT_BOOTSTRAP);
+            printf(score_help, (unsigned)VG_DEFAULT_SEED, (unsigned)VG_DEFAULT_BOOTSTRAP,
+                   VG_DEFAULT_CI);
             rc = VG_EXIT_OK;
             goto done;
         case ':':
