@@ -223,38 +223,43 @@ static int64_t kendall_s(const prep *p, tws *w, uint64_t N, uint64_t n1, uint64_
      * discordant with every copy already inserted (smaller value) that is
      * larger in the other variable. Query a whole group before inserting
      * it, so that pairs tied in the walked variable are not counted.
-     * The counts of larger ids come from a complete binary tree of L
-     * levels (level l counts the copies per id >> l): the copies above id
-     * v are, for each l where bit l of v is 0, those under the sibling
-     * (v >> l) | 1. Fixed-depth loops without branches: zero weights
-     * cost a wasted add, not a mispredicted jump. */
+     * The copies with a larger id come from a complete binary tree in
+     * heap order (node 1 the root, id v the leaf 2^L + v, the ancestors
+     * of node h are h >> l): they are the copies under every right
+     * sibling h | 1 of an ancestor h that is a left child. Fixed-depth
+     * loops without branches: a zero weight costs wasted adds, not a
+     * mispredicted jump. */
     uint32_t *tree = w->tree;
     unsigned L = p->k_levels;
     const size_t *order = p->k_order, *starts = p->k_starts;
     const uint32_t *id = p->k_tree_id;
-    size_t off[33];
-    for (unsigned l = 0, o = 0; l <= L; l++) {
-        off[l] = o;
-        o += (size_t)1 << (L - l);
-    }
+    const uint32_t leaf0 = (uint32_t)1 << L;
     memset(tree, 0, ((size_t)2 << L) * sizeof *tree);
     uint64_t d = 0;
     for (size_t g = 0; g < p->k_ngroups; g++) {
         size_t lo = starts[g], hi = starts[g + 1];
+        if (hi - lo == 1) {
+            /* A group of one (the common case when walking a continuous
+             * variable): query and insert along the same path at once. */
+            size_t i = order[lo];
+            uint32_t h = leaf0 + id[i], ci = c[i], above = 0;
+            for (unsigned l = 0; l < L; l++, h >>= 1) {
+                above += tree[h | 1] & ((h & 1) - 1u);
+                tree[h] += ci;
+            }
+            d += (uint64_t)ci * above;
+            continue;
+        }
         for (size_t k = lo; k < hi; k++) {
             size_t i = order[k];
-            uint32_t v = id[i];
-            uint32_t above = 0;
-            for (unsigned l = 0; l < L; l++) {
-                uint32_t q = v >> l;
-                above += tree[off[l] + (q | 1)] & ((q & 1) - 1u);
-            }
+            uint32_t h = leaf0 + id[i], above = 0;
+            for (unsigned l = 0; l < L; l++, h >>= 1) above += tree[h | 1] & ((h & 1) - 1u);
             d += (uint64_t)c[i] * above;
         }
         for (size_t k = lo; k < hi; k++) {
             size_t i = order[k];
-            uint32_t v = id[i], ci = c[i];
-            for (unsigned l = 0; l < L; l++) tree[off[l] + (v >> l)] += ci;
+            uint32_t h = leaf0 + id[i], ci = c[i];
+            for (unsigned l = 0; l < L; l++, h >>= 1) tree[h] += ci;
         }
     }
     return (int64_t)(pairs_of(N) - n1 - n2 + n3) - 2 * (int64_t)d;

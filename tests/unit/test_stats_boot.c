@@ -163,11 +163,25 @@ static void test_counts_match_draws(void **state) {
  * defined y; every jackknife value equals them on the data without item
  * i. Ties in both variables and unscored items included. This is the
  * O(n) re-ranking checked against plain re-ranking. */
+static void check_replicates(const double *x, const double *y);
+
 static void test_replicates_equal_direct(void **state) {
     (void)state;
+    double x[120], y[120], xs[120], ys[120];
+    make_data(x, y, 120, 7);
+    check_replicates(x, y);
+    /* Roles swapped: x now has more distinct values than y, so Kendall's
+     * tree goes over the other variable. */
+    make_data(xs, ys, 120, 8);
+    for (size_t i = 0; i < 120; i++) {
+        x[i] = isnan(ys[i]) ? ys[(i + 1) % 120] : ys[i];
+        y[i] = i % 13 == 2 ? NAN : xs[i];
+    }
+    check_replicates(x, y);
+}
+
+static void check_replicates(const double *x, const double *y) {
     enum { N = 120, B = 300 };
-    double x[N], y[N];
-    make_data(x, y, N, 7);
     vg_corr_boot_options o;
     vg_corr_boot_options_init(&o);
     o.replicates = B;
