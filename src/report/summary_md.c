@@ -382,9 +382,9 @@ vg_status vg_report_text_table(const vg_results *r, FILE *fp, vg_error *err) {
         fprintf(fp, "%s: the raters agree at %s (leave-one-out Spearman, %zu raters)\n",
                 r->suites[k]->id, vg_format_fixed(a->value, 3, v), a->columns);
     }
-    if (r->n_rows > 0 && r->rows[0].n_ci > 0)
-        fprintf(fp, "%sintervals: %g%% %s\n", notes ? "" : "\n", 100 * r->options.ci,
-                headline_method(r));
+    const char *method = headline_method(r);
+    if (strcmp(method, "no") != 0)
+        fprintf(fp, "%sintervals: %g%% %s\n", notes ? "" : "\n", 100 * r->options.ci, method);
     if (ferror(fp)) return vg_error_set(err, VG_EIO, NULL, 0, "write to standard output failed");
     return VG_OK;
 }

@@ -432,10 +432,11 @@ vg_status vg_stats_corr_bootstrap(const double *x, const double *y, size_t n,
         return vg_error_set(err, VG_ELIMIT, NULL, 0, "%zu replicates are too many", B);
     prep p;
     if (prep_init(&p, x, y, n) != 0) return vg_error_set(err, VG_ENOMEM, NULL, 0, "out of memory");
-    /* With fewer than 2 used items nothing is defined: skip the work. */
-    int work = B > 0 && p.m >= 2;
+    /* With fewer than 2 used items nothing is defined: skip the work. The
+     * jackknife is needed for BCa, or when the caller asks for it. */
+    int work = (B > 0 || jackknife) && p.m >= 2;
     unsigned T = work ? vg_threads_resolve(opt->threads) : 1;
-    if (T > B && B > 0) T = (unsigned)B;
+    if (T > p.m + B) T = (unsigned)(p.m + B);
     job J = {.p = &p, .B = B, .seed = opt->seed, .stream = opt->stream};
     J.reps = vg_calloc(nb ? nb : 1, sizeof *J.reps);
     J.jack = vg_calloc((size_t)VG_CORR_COUNT * (n ? n : 1), sizeof *J.jack);

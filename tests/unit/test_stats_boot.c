@@ -252,7 +252,7 @@ static void test_threads_deterministic(void **state) {
 }
 
 /* corrboot-3: no bootstrap (B = 0) gives the estimates and Fisher-z
- * intervals only; fewer than 2 scored items give NaN everywhere; a bad
+ * intervals only (and the jackknife if asked for); fewer than 2 scored items give NaN everywhere; a bad
  * level or a NaN x is refused with VG_EINVAL. */
 static void test_corrboot_edges(void **state) {
     (void)state;
@@ -270,6 +270,12 @@ static void test_corrboot_edges(void **state) {
     assert_int_equal(e[VG_CORR_SPEARMAN].boot.replicates, 0);
     assert_true(isnan(e[VG_CORR_SPEARMAN].boot.bca_low));
     assert_false(isnan(e[VG_CORR_SPEARMAN].fisher_low));
+    /* The jackknife is still computed when asked for: without item 0,
+     * x = 2..6 against y = 3 2 5 4 6 (Spearman by hand: d = 1 1 1 1 0,
+     * rho = 1 - 6 * 4 / (5 * 24) = 0.8). */
+    double jack[3 * 6];
+    assert_vg_ok(vg_stats_corr_bootstrap(x, y, 6, &o, e, NULL, jack, &err), &err);
+    assert_close(jack[0], 0.8, 1e-15, 0);
     double y1[6] = {1, NAN, NAN, NAN, NAN, NAN};
     o.replicates = 50;
     assert_vg_ok(vg_stats_corr_bootstrap(x, y1, 6, &o, e, NULL, NULL, &err), &err);
