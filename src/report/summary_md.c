@@ -34,11 +34,12 @@ static size_t best_set(const vg_results *r, size_t k, vg_metric m) {
     return best;
 }
 
-/* "[low, high]" of the headline interval of row, or "" without one. */
+/* " [low, high]" of the headline interval of row, or "" without one (or
+ * without a value). */
 static const char *interval_text(const vg_score_row *row, char buf[80]) {
     char lo[32], hi[32];
     buf[0] = '\0';
-    if (row && row->n_ci > 0)
+    if (row && row->n_ci > 0 && !isnan(row->value))
         snprintf(buf, 80, " [%s, %s]", vg_format_fixed(row->ci[0].low, 3, lo),
                  vg_format_fixed(row->ci[0].high, 3, hi));
     return buf;
@@ -66,13 +67,24 @@ static void similarity_table(const vg_results *r, FILE *fp) {
             "Cells: rho on the covered pairs with its %g%% %s interval "
             "(pairs used / pairs, coverage). **Bold**: the best set on that suite.\n\n",
             100 * r->options.ci, headline_method(r));
-    fputs("| suite | pairs |", fp);
+    /* The raters' agreement goes beside the scores as the suite's
+     * ceiling, when some suite has individual ratings. */
+    int raters = 0;
+    for (size_t k = 0; k < r->n_suites; k++) {
+        const vg_agreement *a = vg_results_agreement(r, k);
+        raters |= a && a->columns > 0;
+    }
+    if (raters)
+        fputs("Raters: the human agreement on that suite (see Human agreement), a rough "
+              "ceiling.\n\n",
+              fp);
+    fputs(raters ? "| suite | pairs | raters |" : "| suite | pairs |", fp);
     for (size_t i = 0; i < r->n_sets; i++) {
         fputc(' ', fp);
         vg_md_cell(fp, r->labels[i]);
         fputs(" |", fp);
     }
-    fputs("\n|---|---:|", fp);
+    fputs(raters ? "\n|---|---:|---:|" : "\n|---|---:|", fp);
     for (size_t i = 0; i < r->n_sets; i++) fputs("---:|", fp);
     fputc('\n', fp);
     for (size_t k = 0; k < r->n_suites; k++) {
@@ -82,6 +94,11 @@ static void similarity_table(const vg_results *r, FILE *fp) {
         fputs("| ", fp);
         vg_md_cell(fp, s->id);
         fprintf(fp, " | %zu |", s->n_items);
+        if (raters) {
+            const vg_agreement *a = vg_results_agreement(r, k);
+            char v[32];
+            fprintf(fp, " %s |", a && a->columns > 0 ? vg_format_fixed(a->value, 3, v) : "");
+        }
         for (size_t i = 0; i < r->n_sets; i++) {
             const vg_score_row *row = vg_results_find(r, i, k, "", VG_METRIC_SPEARMAN, 0);
             char v[32];

@@ -189,6 +189,10 @@ static void test_agreement_reported(void **state) {
     char line[200];
     snprintf(line, sizeof line, "| toy-raters | %.3f | 3 | 2-3 | 10 |", a->value);
     assert_non_null(strstr(md, "## Human agreement"));
+    /* ... and beside the scores in the Spearman table. */
+    snprintf(line, sizeof line, "| toy-raters | 10 | %.3f | ", a->value);
+    assert_non_null(strstr(md, line));
+    assert_non_null(strstr(md, "| suite | pairs | raters | one | two |"));
     assert_non_null(strstr(md, line));
     assert_non_null(strstr(md, "pairs carry 2 to 3 ratings"));
     assert_non_null(strstr(md, "case folding would recover 3 more pairs"));
