@@ -115,6 +115,9 @@ typedef struct vg_corr_boot_options {
                             draws the same items for every vector set */
     double level;        /* confidence level (VG_DEFAULT_CI) */
     unsigned threads;    /* 0: one per online CPU; results never depend on it */
+    unsigned kinds;      /* bit 1 << k: bootstrap vg_corr k; 0: all three.
+                            Left-out ones get NaN replicates and intervals
+                            (their estimates are still computed) */
 } vg_corr_boot_options;
 
 VG_API void vg_corr_boot_options_init(vg_corr_boot_options *opt);

@@ -54,7 +54,9 @@ typedef struct tws {
     gsl_rng *rng;
 } tws;
 
-enum { WANT_SPEARMAN = 1, WANT_PEARSON = 2, WANT_KENDALL = 4, WANT_ALL = 7 };
+/* Which correlations to compute: bit k for vg_corr k. */
+enum { WANT_SPEARMAN = 1 << VG_CORR_SPEARMAN, WANT_PEARSON = 1 << VG_CORR_PEARSON,
+       WANT_KENDALL = 1 << VG_CORR_KENDALL, WANT_ALL = (1 << VG_CORR_COUNT) - 1 };
 
 static uint64_t pairs_of(uint64_t t) { return t * (t - 1) / 2; }
 
@@ -320,6 +322,7 @@ typedef struct job {
     const prep *p;
     tws *ws;
     size_t B;
+    int want;            /* WANT_* bits */
     uint64_t seed, stream;
     double *reps;        /* 3 * B, reps[k * B + r] */
     double *jack;        /* 3 * n, the used items' entries are filled */
@@ -359,7 +362,7 @@ static void worker(void *ctx, unsigned t, unsigned T) {
         memset(w->c, 0, n * sizeof *w->c);
         vg_resample_seed(w->rng, J->seed, J->stream, r);
         vg_resample_counts(w->rng, n, w->c);
-        weighted(p, w, WANT_ALL, v);
+        weighted(p, w, J->want, v);
         for (int k = 0; k < VG_CORR_COUNT; k++) J->reps[(size_t)k * B + r] = v[k];
     }
     memset(w->c, 0, n * sizeof *w->c);
@@ -367,11 +370,14 @@ static void worker(void *ctx, unsigned t, unsigned T) {
     for (size_t k = p->m * t / T; k < p->m * (t + 1) / T; k++) {
         size_t i = p->used[k];
         w->c[i] = 0;
-        weighted(p, w, WANT_SPEARMAN | WANT_PEARSON, v);
+        v[VG_CORR_SPEARMAN] = v[VG_CORR_PEARSON] = NAN;
+        if (J->want & (WANT_SPEARMAN | WANT_PEARSON))
+            weighted(p, w, J->want & (WANT_SPEARMAN | WANT_PEARSON), v);
         w->c[i] = 1;
         J->jack[(size_t)VG_CORR_SPEARMAN * n + i] = v[VG_CORR_SPEARMAN];
         J->jack[(size_t)VG_CORR_PEARSON * n + i] = v[VG_CORR_PEARSON];
-        J->jack[(size_t)VG_CORR_KENDALL * n + i] = kendall_without(J, i);
+        J->jack[(size_t)VG_CORR_KENDALL * n + i] =
+            J->want & WANT_KENDALL ? kendall_without(J, i) : NAN;
     }
 }
 
@@ -437,7 +443,8 @@ vg_status vg_stats_corr_bootstrap(const double *x, const double *y, size_t n,
     int work = (B > 0 || jackknife) && p.m >= 2;
     unsigned T = work ? vg_threads_resolve(opt->threads) : 1;
     if (T > p.m + B) T = (unsigned)(p.m + B);
-    job J = {.p = &p, .B = B, .seed = opt->seed, .stream = opt->stream};
+    int want = opt->kinds ? (int)(opt->kinds & WANT_ALL) : WANT_ALL;
+    job J = {.p = &p, .B = B, .want = want, .seed = opt->seed, .stream = opt->stream};
     J.reps = vg_calloc(nb ? nb : 1, sizeof *J.reps);
     J.jack = vg_calloc((size_t)VG_CORR_COUNT * (n ? n : 1), sizeof *J.jack);
     J.ws = vg_calloc(T, sizeof *J.ws);
@@ -455,11 +462,12 @@ vg_status vg_stats_corr_bootstrap(const double *x, const double *y, size_t n,
     if (work) {
         /* Kendall's counts on every used item, for its jackknife. */
         tws *w = &J.ws[0];
+        memset(w->c, 0, n * sizeof *w->c);
         for (size_t k = 0; k < p.m; k++) w->c[p.used[k]] = 1;
         size_t ne;
         uint64_t N = group_ranks(p.ox, p.gx, p.ngx, w->c, w->rx, w->wx, &ne, &J.full_n1);
         group_ranks(p.oy, p.gy, p.ngy, w->c, w->ry, w->wy, &ne, &J.full_n2);
-        J.full_s = kendall_s(&p, w, N, J.full_n1, J.full_n2);
+        if (want & WANT_KENDALL) J.full_s = kendall_s(&p, w, N, J.full_n1, J.full_n2);
         vg_parallel(T, worker, &J);
     }
 

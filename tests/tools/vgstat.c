@@ -4,7 +4,7 @@
  *
  * Usage:
  *   vgstat spearman|pearson|kendall|rank-x FILE
- *   vgstat bootstrap FILE B SEED THREADS LEVEL [STREAM_NAME]
+ *   vgstat bootstrap FILE B SEED THREADS LEVEL [STREAM_NAME [KINDS]]
  *   vgstat replicates FILE B SEED [STREAM_NAME]
  *   vgstat indices N B SEED [STREAM_NAME]
  *   vgstat intervals REPS_FILE JACK_FILE THETA LEVEL
@@ -12,7 +12,8 @@
  *   vgstat agreement PAIRS_FILE COL_RATERS
  * FILE holds one "x y" pair of numbers per line; y may be "nan" (an item
  * not scored: resampled, but left out of the statistics). STREAM_NAME
- * names the resampling stream as a suite id would (default "vgstat").
+ * names the resampling stream as a suite id would (default "vgstat");
+ * KINDS the correlations to bootstrap, e.g. "spearman" (default: all).
  * Every number is printed with %.17g.
  *
  *   bootstrap: one line per correlation (spearman, pearson, kendall):
@@ -105,6 +106,8 @@ static int cmd_bootstrap(int argc, char **argv, int print_reps) {
         o.threads = (unsigned)strtoul(argv[5], NULL, 10);
         o.level = strtod(argv[6], NULL);
         if (argc > 7) stream = argv[7];
+        for (int k = 0; argc > 8 && k < VG_CORR_COUNT; k++)
+            if (strstr(argv[8], corr_names[k])) o.kinds |= 1u << k;
     }
     o.stream = vg_resample_stream(stream, "");
     vg_corr_estimate e[VG_CORR_COUNT];

@@ -246,7 +246,7 @@ static void check_replicates(const double *x, const double *y, size_t N) {
 
 /* corrboot-2: the replicates and intervals are bit-identical for 1, 2, 3,
  * 4 and 7 threads (each replicate's stream comes from seed, stream and
- * its index alone), and change with the seed. */
+ * its index alone), and for Spearman alone; they change with the seed. */
 static void test_threads_deterministic(void **state) {
     (void)state;
     enum { N = 200, B = 257 };
@@ -269,6 +269,14 @@ static void test_threads_deterministic(void **state) {
         assert_memory_equal(ref, got, 3 * B * sizeof *ref);
         assert_memory_equal(e0, e1, sizeof e0);
     }
+    /* Spearman alone: the same Spearman replicates, the others NaN. */
+    o.kinds = 1u << VG_CORR_SPEARMAN;
+    assert_vg_ok(vg_stats_corr_bootstrap(x, y, N, &o, e1, got, NULL, &err), &err);
+    assert_memory_equal(ref, got, B * sizeof *ref);
+    assert_memory_equal(&e0[0], &e1[0], sizeof e0[0]);
+    assert_true(isnan(got[B]) && isnan(got[2 * B]) && isnan(e1[2].boot.bca_low));
+    assert_close(e1[2].value, e0[2].value, 0, 0);
+    o.kinds = 0;
     o.seed += 1;
     assert_vg_ok(vg_stats_corr_bootstrap(x, y, N, &o, e1, got, NULL, &err), &err);
     assert_true(memcmp(ref, got, 3 * B * sizeof *ref) != 0);
