@@ -399,6 +399,15 @@ vg_status vg_report_text_table(const vg_results *r, FILE *fp, vg_error *err) {
         fprintf(fp, "%s: the raters agree at %s (leave-one-out Spearman, %zu raters)\n",
                 r->suites[k]->id, vg_format_fixed(a->value, 3, v), a->columns);
     }
+    for (size_t i = 0; i < r->n_sets && !r->options.score.fold_case; i++)
+        for (size_t k = 0; k < r->n_suites; k++) {
+            const vg_similarity_scores *sc = r->blocks[i * r->n_suites + k].sim;
+            if (!sc || sc->n_fold_recovered == 0) continue;
+            if (!notes++) fputc('\n', fp);
+            fprintf(fp, "%s on %s: case folding would recover %zu more pair%s (--fold-case)\n",
+                    r->labels[i], r->suites[k]->id, sc->n_fold_recovered,
+                    sc->n_fold_recovered == 1 ? "" : "s");
+        }
     const char *method = headline_method(r);
     if (strcmp(method, "no") != 0)
         fprintf(fp, "%sintervals: %g%% %s\n", notes ? "" : "\n", 100 * r->options.ci, method);

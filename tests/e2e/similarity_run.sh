@@ -102,9 +102,11 @@ expect_in "ci-2: the message says what --ci expects" "--ci needs a level between
 # (Apple, Bread); one needs a word no set has (kiwi).
 printf 'Apple\tpear\t9.1\napple\tbread\t2.0\nBread\tbagel\t8.5\nmop\tbroom\t8.8\npear\tmop\t0.5\nbagel\tbroom\t1.2\napple\tkiwi\t8.0\n' > "$TMP/fold.tsv"
 printf '6 2\napple 0.9 0.1\npear 0.8 0.2\nbread 0.1 0.9\nbagel 0.2 0.8\nmop 0.5 0.5\nbroom 0.6 0.4\n' > "$TMP/fold.txt"
-"$VG_BIN" score --pairs "$TMP/fold.tsv" --out "$TMP/f0" "$TMP/fold.txt" > /dev/null 2>&1
+"$VG_BIN" score --pairs "$TMP/fold.tsv" --out "$TMP/f0" "$TMP/fold.txt" > "$TMP/f0.stdout" 2>&1
 expect_in "fold-1: without --fold-case: 'would recover 2 more pairs'" \
     "case folding would recover 2 more pairs (run with --fold-case)" "$TMP/f0/summary.md"
+expect_in "fold-1: ... also on standard output" \
+    "fold on fold: case folding would recover 2 more pairs (--fold-case)" "$TMP/f0.stdout"
 "$VG_BIN" score --fold-case --pairs "$TMP/fold.tsv" --out "$TMP/f1" "$TMP/fold.txt" > /dev/null 2>&1
 expect_in "fold-1: with --fold-case: '2 pairs scored only thanks to case folding'" \
     "2 pairs scored only thanks to case folding" "$TMP/f1/summary.md"
