@@ -66,11 +66,12 @@ SUITES_O  = suites/suite.o suites/fields.o suites/pairs.o suites/analogies.o \
             suites/datadir.o gen/manifest_csv.o
 FETCH_O   = fetch/download.o fetch/extract.o fetch/fetch.o
 SCORE_O   = score/similarity.o score/analogy.o
-STATS_O   = stats/rank.o stats/correlation.o stats/resample.o \
+STATS_O   = stats/rank.o stats/correlation.o stats/kendall.o stats/interval.o \
+            stats/resample.o stats/corrboot.o stats/agreement.o \
             stats/paired_correlation.o stats/paired_counts.o
-EVAL_O    = eval/results.o eval/evaluate.o eval/similarity_rows.o
-REPORT_O  = report/csvout.o report/summary_md.o report/rundir.o report/items_csv.o \
-            report/latex.o report/run_json.o report/run_record.o
+EVAL_O    = eval/results.o eval/evaluate.o eval/similarity_rows.o eval/agreement.o
+REPORT_O  = report/csvout.o report/summary_md.o report/rundir.o report/intervals.o \
+            report/items_csv.o report/latex.o report/run_json.o report/run_record.o
 CLI_O     = cli/main.o cli/util.o cli/signals.o cli/run_output.o cli/cmd_score.o \
             cli/cmd_rerun.o cli/cmd_suites.o cli/cmd_fetch.o
 

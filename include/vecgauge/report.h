@@ -59,6 +59,28 @@ VG_API const char *vg_report_scores_header(void);
 VG_API vg_status vg_report_scores_csv(const vg_results *r, FILE *fp,
                                       const char *path, vg_error *err);
 
+/* The header line of intervals.csv, without the newline. */
+VG_API const char *vg_report_intervals_header(void);
+
+/* Write intervals.csv: one line per interval of every row of r (a row
+ * has up to VG_MAX_INTERVALS: for similarity rows bca, percentile and
+ * fisher-z), with the row's identity and value, the method, the
+ * confidence level and, for bootstrap intervals, the replicates with a
+ * defined value (empty for analytic intervals). Rows and intervals keep
+ * the order of scores.csv. Returns VG_EIO with path if writing fails. */
+VG_API vg_status vg_report_intervals_csv(const vg_results *r, FILE *fp,
+                                         const char *path, vg_error *err);
+
+/* The header line of agreement.csv, without the newline. */
+VG_API const char *vg_report_agreement_header(void);
+
+/* Write agreement.csv: for each suite whose file carries individual
+ * ratings, the raters' agreement (vg_agreement) as one line: suite,
+ * method, value, columns, columns_used, min_ratings, max_ratings,
+ * n_items. Only the header when no suite has individual ratings. */
+VG_API vg_status vg_report_agreement_csv(const vg_results *r, FILE *fp,
+                                         const char *path, vg_error *err);
+
 /* Write summary.md: a table per task, coverage warnings, the options in
  * effect and the provenance. prov may be NULL. */
 VG_API vg_status vg_report_summary_md(const vg_results *r, const vg_provenance *prov,

@@ -15,6 +15,7 @@
 
 #include "error.h"
 #include "score.h"
+#include "stats.h"
 #include "suite.h"
 #include "vectors.h"
 #include "vg_config.h"
@@ -43,15 +44,24 @@ VG_API const char *vg_metric_name(vg_metric m);
 VG_API vg_status vg_metric_parse(const char *name, vg_metric *out);
 
 /* A confidence interval and the method that produced it ("bca",
- * "percentile", "fisher-z", "wilson"). */
+ * "percentile", "fisher-z", "wilson"), at the level of the run
+ * (vg_eval_options.ci). low and high are NaN when the method cannot give
+ * an interval (e.g. BCa when every replicate lies on one side). */
 typedef struct vg_interval {
     double low, high;
     const char *method;   /* static string */
+    size_t replicates;    /* bootstrap replicates behind it (those with a
+                             defined value); 0 for an analytic interval */
 } vg_interval;
 
 #define VG_MAX_INTERVALS 4
 
-/* One row of scores.csv. */
+/* One row of scores.csv. A similarity suite gives, per vector set, the
+ * rows spearman, spearman_all, pearson, pearson_all, kendall, kendall_all
+ * in that order (always all six: the _all rows equal the others when
+ * coverage is complete). Their intervals are ci[0] "bca" (the headline),
+ * ci[1] "percentile" and ci[2] "fisher-z" when bootstrapping, else ci[0]
+ * "fisher-z" alone. */
 typedef struct vg_score_row {
     size_t set;            /* index into vg_results.sets */
     size_t suite;          /* index into vg_results.suites */
@@ -106,6 +116,9 @@ typedef struct vg_results {
     size_t n_rows;
     vg_item_block *blocks;     /* n_sets * n_suites, index set * n_suites + suite */
     vg_eval_options options;   /* the options in effect */
+    vg_agreement *agreement;   /* n_suites: agreement of each suite's raters
+                                  (value NaN, columns 0 when its file
+                                  carries no individual ratings) */
 } vg_results;
 
 /* Evaluate every set on every suite. On success *out owns new results
@@ -122,6 +135,9 @@ VG_API void vg_results_free(vg_results *r);
 /* The block of set s on suite k. */
 VG_API const vg_item_block *vg_results_block(const vg_results *r, size_t set,
                                              size_t suite);
+
+/* The raters' agreement on suite k, or NULL if k is out of range. */
+VG_API const vg_agreement *vg_results_agreement(const vg_results *r, size_t suite);
 
 /* The first row matching (set, suite, subset, metric, all_items), or NULL. */
 VG_API const vg_score_row *vg_results_find(const vg_results *r, size_t set,

@@ -57,10 +57,12 @@ void vg_cli_utc_now(char iso[32], char stamp[32]);
 int vg_cli_write_run(const char *dir, const vg_results *res, const vg_provenance *prov);
 
 /* SIGINT/SIGTERM handling (signals.c): install the handlers once; while a
- * run directory is written, register its temporary path so that a signal
- * removes it; vg_cli_interrupted() tells long work to stop. */
+ * run directory is written, register its temporary path and the file
+ * names it can hold (a NULL-terminated static array) so that a signal
+ * removes them; NULL unregisters. vg_cli_interrupted() tells long work to
+ * stop. */
 void vg_cli_install_signals(void);
-void vg_cli_set_cleanup(const char *temp_dir);
+void vg_cli_set_cleanup(const char *temp_dir, const char *const *names);
 int vg_cli_interrupted(void);
 
 /* The commands. Each gets argv starting at the command name. */

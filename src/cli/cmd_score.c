@@ -36,13 +36,18 @@ static const char score_help[] =
     "Scoring:\n"
     "      --fold-case        retry missing words Unicode case-folded\n"
     "      --seed N           random seed for resampling (default %u)\n"
-    "      --bootstrap N      bootstrap replicates (default %u)\n"
+    "      --bootstrap N      bootstrap replicates over the pairs (default %u; 0: none)\n"
+    "      --ci LEVEL         confidence level of every interval, 0 < LEVEL < 1\n"
+    "                         (default %g)\n"
     "  -j, --threads N        threads (default: one per CPU)\n"
     "\n"
     "  -h, --help             show this help and exit\n"
     "\n"
-    "Writes scores.csv, items.csv, missing.csv, summary.md, table.tex and run.json\n"
-    "into the run directory and prints the headline table on standard output.\n";
+    "Writes scores.csv, intervals.csv, agreement.csv, items.csv, missing.csv,\n"
+    "summary.md, table.tex and run.json into the run directory and prints the\n"
+    "headline table on standard output. Intervals are BCa bootstrap intervals\n"
+    "(percentile and Fisher-z ones in intervals.csv); the same seed gives the\n"
+    "same numbers for any --threads.\n";
 
 /* One suite as asked for on the command line. */
 typedef enum { SPEC_SUITE, SPEC_PAIRS, SPEC_ANALOGIES } spec_kind;
@@ -63,7 +68,7 @@ typedef struct score_args {
     char data_used[VG_ERROR_PATH_MAX]; /* the data directory read, "" if none */
 } score_args;
 
-enum { OPT_FOLD = 256, OPT_SEED, OPT_BOOT, OPT_DATA, OPT_MANIFEST };
+enum { OPT_FOLD = 256, OPT_SEED, OPT_BOOT, OPT_DATA, OPT_MANIFEST, OPT_CI };
 
 static const struct option long_opts[] = {
     {"suite", required_argument, NULL, 's'},
@@ -75,6 +80,7 @@ static const struct option long_opts[] = {
     {"fold-case", no_argument, NULL, OPT_FOLD},
     {"seed", required_argument, NULL, OPT_SEED},
     {"bootstrap", required_argument, NULL, OPT_BOOT},
+    {"ci", required_argument, NULL, OPT_CI},
     {"threads", required_argument, NULL, 'j'},
     {"help", no_argument, NULL, 'h'},
     {NULL, 0, NULL, 0}};
@@ -295,6 +301,16 @@ int vg_cmd_score(int argc, char **argv) {
             }
             a.eval.bootstrap = (size_t)u;
             break;
+        case OPT_CI: {
+            double lv;
+            if (vg_cli_parse_double(optarg, 0, 1, &lv) != 0 || lv <= 0 || lv >= 1) {
+                rc = vg_cli_usage_error("score", "--ci needs a level between 0 and 1 (e.g. 0.95), got '%s'",
+                                        optarg);
+                goto done;
+            }
+            a.eval.ci = lv;
+            break;
+        }
         case 'j':
             if (vg_cli_parse_u64(optarg, 1, 1024, &u) != 0) {
                 rc = vg_cli_usage_error("score", "--threads needs an integer 1..1024, got '%s'", optarg);
@@ -303,7 +319,8 @@ int vg_cmd_score(int argc, char **argv) {
             a.eval.score.threads = (unsigned)u;
             break;
         case 'h':
-            printf(score_help, (unsigned)VG_DEFAULT_SEED, (unsigned)VG_DEFAULT_BOOTSTRAP);
+            printf(score_help, (unsigned)VG_DEFAULT_SEED, (unsigned)VG_DEFAULT_BOOTSTRAP,
+                   VG_DEFAULT_CI);
             rc = VG_EXIT_OK;
             goto done;
         case ':':

@@ -18,15 +18,12 @@
 static volatile sig_atomic_t got_signal;
 static char cleanup_dir[4096];
 static volatile sig_atomic_t cleanup_set;
-
-/* The file names a run directory can hold; kept in step with
- * run_output.c (a test interrupts runs and checks nothing is left). */
-static const char *const run_names[] = {"scores.csv", "items.csv", "missing.csv", "summary.md",
-                                        "table.tex", "run.json", "intervals.csv",
-                                        "comparison.csv", NULL};
+/* The file names the directory being written can hold (NULL-terminated,
+ * static storage of the writer). */
+static const char *const *run_names;
 
 static void remove_run_temp(void) {
-    if (!cleanup_set) return;
+    if (!cleanup_set || !run_names) return;
     char path[4096 + 64];
     size_t n = strlen(cleanup_dir);
     for (int i = 0; run_names[i]; i++) {
@@ -61,7 +58,7 @@ void vg_cli_install_signals(void) {
     sigaction(SIGTERM, &sa, NULL);
 }
 
-void vg_cli_set_cleanup(const char *temp_dir) {
+void vg_cli_set_cleanup(const char *temp_dir, const char *const *names) {
     /* Block the signals while the path changes so that the handler never
      * sees a half-copied path. */
     sigset_t block, old;
@@ -71,6 +68,7 @@ void vg_cli_set_cleanup(const char *temp_dir) {
     sigprocmask(SIG_BLOCK, &block, &old);
     if (temp_dir && strlen(temp_dir) < sizeof cleanup_dir) {
         memcpy(cleanup_dir, temp_dir, strlen(temp_dir) + 1);
+        run_names = names;
         cleanup_set = 1;
     } else {
         cleanup_set = 0;

@@ -20,4 +20,8 @@ VG_INTERNAL vg_status vg_eval_similarity_rows(vg_results *r, size_t *cap, size_t
                                               size_t suite, const vg_eval_options *opt,
                                               vg_error *err);
 
+/* Allocate r->agreement and fill it for every suite (NaN where a suite
+ * has no individual ratings). */
+VG_INTERNAL vg_status vg_eval_agreement(vg_results *r, vg_error *err);
+
 #endif /* VG_EVAL_IMPL_H */

@@ -60,7 +60,7 @@ vg_status vg_evaluate(const vg_vector_set *sets, size_t n_sets, const vg_suite *
     vg_results *r = results_new(sets, n_sets, suites, n_suites, opt);
     if (!r) return vg_error_set(err, VG_ENOMEM, NULL, 0, "out of memory");
     size_t cap = 0;
-    vg_status st = VG_OK;
+    vg_status st = vg_eval_agreement(r, err);
     for (size_t i = 0; i < n_sets && st == VG_OK; i++) {
         for (size_t k = 0; k < n_suites && st == VG_OK; k++) {
             vg_item_block *b = &r->blocks[i * n_suites + k];

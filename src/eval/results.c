@@ -40,12 +40,17 @@ int vg_results_add_row(vg_results *r, size_t *cap, const vg_score_row *row) {
 
 void vg_row_add_interval(vg_score_row *row, double low, double high, const char *method) {
     if (row->n_ci >= VG_MAX_INTERVALS) return;
-    row->ci[row->n_ci++] = (vg_interval){low, high, method};
+    row->ci[row->n_ci++] = (vg_interval){.low = low, .high = high, .method = method};
 }
 
 const vg_item_block *vg_results_block(const vg_results *r, size_t set, size_t suite) {
     if (set >= r->n_sets || suite >= r->n_suites) return NULL;
     return &r->blocks[set * r->n_suites + suite];
+}
+
+const vg_agreement *vg_results_agreement(const vg_results *r, size_t suite) {
+    if (!r->agreement || suite >= r->n_suites) return NULL;
+    return &r->agreement[suite];
 }
 
 const vg_score_row *vg_results_find(const vg_results *r, size_t set, size_t suite,
@@ -78,5 +83,6 @@ void vg_results_free(vg_results *r) {
     vg_free(r->blocks);
     vg_free(r->suites);
     vg_free(r->rows);
+    vg_free(r->agreement);
     vg_free(r);
 }

@@ -34,3 +34,29 @@ void vg_resample_seed(gsl_rng *rng, uint64_t seed, uint64_t stream, uint64_t rep
 void vg_resample_draw(gsl_rng *rng, size_t n, size_t *idx) {
     for (size_t i = 0; i < n; i++) idx[i] = (size_t)gsl_rng_uniform_int(rng, (unsigned long)n);
 }
+
+void vg_resample_counts(gsl_rng *rng, size_t n, uint32_t *counts) {
+    /* gsl_rng_uniform_int's algorithm (GSL 2.7, gsl_rng.h), unrolled so
+     * that its division by the same scale is done once, as a multiply by
+     * the reciprocal corrected to the exact quotient: k = (get - min) /
+     * scale, rejected while k >= n. The draws are therefore exactly those
+     * of vg_resample_draw. */
+    const gsl_rng_type *t = rng->type;
+    unsigned long offset = t->min, range = t->max - offset;
+    if (n == 0 || n > range) return;
+    unsigned long scale = range / n;
+    double inv = 1.0 / (double)scale;
+    for (size_t i = 0; i < n; i++) {
+        unsigned long k;
+        do {
+            unsigned long v = t->get(rng->state) - offset;
+            k = (unsigned long)((double)v * inv);
+            /* The product is within one of v / scale: correct it. */
+            if (k * scale > v)
+                k--;
+            else if (v - k * scale >= scale)
+                k++;
+        } while (k >= n);
+        counts[k]++;
+    }
+}

@@ -36,4 +36,10 @@ VG_INTERNAL void vg_resample_seed(gsl_rng *rng, uint64_t seed, uint64_t stream,
  * 0..n-1 (gsl_rng_uniform_int). */
 VG_INTERNAL void vg_resample_draw(gsl_rng *rng, size_t n, size_t *idx);
 
+/* The same n draws as vg_resample_draw from the same generator state, kept
+ * as multiplicities: counts[i] += the number of times item i is drawn
+ * (the caller zeroes counts first). A bootstrap statistic that only
+ * reweights the original items needs no index list. */
+VG_INTERNAL void vg_resample_counts(gsl_rng *rng, size_t n, uint32_t *counts);
+
 #endif /* VG_RESAMPLE_H */

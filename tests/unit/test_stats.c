@@ -60,6 +60,66 @@ static void test_pearson_anscombe(void **state) {
     assert_close(vg_stats_pearson(x, y, 11), 0.81642051634483992, 1e-14, 0);
 }
 
+/* kendall-1: tau-b with ties in both variables. By hand: x = 12 2 1 12 2,
+ * y = 1 4 7 1 0 give 2 concordant and 6 discordant pairs, n1 = 2 pairs
+ * tied in x, n2 = 1 in y, so tau_b = -4 / sqrt(8 * 9) = -0.4714045...;
+ * scipy.stats.kendalltau's documented example on the same data prints
+ * -0.47140452079103173 (from memory). */
+static void test_kendall_ties(void **state) {
+    (void)state;
+    const double x[] = {12, 2, 1, 12, 2};
+    const double y[] = {1, 4, 7, 1, 0};
+    size_t work[10];
+    assert_close(vg_stats_kendall(x, y, 5, work), -4.0 / sqrt(72.0), 1e-15, 0);
+    assert_close(vg_stats_kendall(x, y, 5, work), -0.47140452079103173, 1e-15, 0);
+}
+
+/* kendall-2: monotone and reversed data give +1 and -1; a constant input
+ * or fewer than 2 items give NaN (the definition of tau-b). */
+static void test_kendall_bounds(void **state) {
+    (void)state;
+    const double x[] = {1, 2, 3, 4, 5, 6};
+    const double y[] = {-3, 0, 0.5, 7, 70, 700};
+    const double z[] = {6, 5, 4, 3, 2, 1};
+    const double c[] = {2, 2, 2, 2, 2, 2};
+    size_t work[12];
+    assert_close(vg_stats_kendall(x, y, 6, work), 1.0, 1e-15, 0);
+    assert_close(vg_stats_kendall(x, z, 6, work), -1.0, 1e-15, 0);
+    assert_true(isnan(vg_stats_kendall(x, c, 6, work)));
+    assert_true(isnan(vg_stats_kendall(x, y, 1, work)));
+}
+
+/* kendall-3: the definition counted pair by pair in O(n^2) (Kendall
+ * 1945): tau_b = sum sgn(dx) sgn(dy) / sqrt((n0 - n1)(n0 - n2)), with n1
+ * and n2 the pairs with dx = 0 and dy = 0, on 300 values with many ties in
+ * both variables, so that the merge-sort count is checked against the
+ * plain one. */
+static void test_kendall_pairs(void **state) {
+    (void)state;
+    enum { N = 300 };
+    double x[N], y[N];
+    size_t work[2 * N];
+    uint64_t s = 88172645463325252ull;
+    for (int i = 0; i < N; i++) {
+        /* xorshift64 (Marsaglia 2003): any fixed sequence will do. */
+        s ^= s << 13, s ^= s >> 7, s ^= s << 17;
+        x[i] = (double)(s % 40);
+        s ^= s << 13, s ^= s >> 7, s ^= s << 17;
+        y[i] = i % 3 ? x[i] * 0.5 + (double)(s % 9) : (double)(s % 1000) / 7.0;
+    }
+    long cd = 0, n1 = 0, n2 = 0, n0 = N * (N - 1) / 2;
+    for (int i = 0; i < N; i++)
+        for (int j = i + 1; j < N; j++) {
+            double dx = x[i] - x[j], dy = y[i] - y[j];
+            cd += (dx > 0 ? 1 : dx < 0 ? -1 : 0) * (dy > 0 ? 1 : dy < 0 ? -1 : 0);
+            n1 += dx == 0;
+            n2 += dy == 0;
+        }
+    assert_true(n1 > 0 && n2 > 0);
+    assert_close(vg_stats_kendall(x, y, N, work),
+                 (double)cd / sqrt((double)(n0 - n1) * (double)(n0 - n2)), 1e-14, 0);
+}
+
 int main(void) {
     const struct CMUnitTest tests[] = {
         cmocka_unit_test(test_rank_ties),
@@ -67,6 +127,9 @@ int main(void) {
         cmocka_unit_test(test_spearman_monotone),
         cmocka_unit_test(test_spearman_undefined),
         cmocka_unit_test(test_pearson_anscombe),
+        cmocka_unit_test(test_kendall_ties),
+        cmocka_unit_test(test_kendall_bounds),
+        cmocka_unit_test(test_kendall_pairs),
     };
     return cmocka_run_group_tests_name("stats", tests, NULL, NULL);
 }
