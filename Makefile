@@ -90,7 +90,8 @@ PC    = $(BUILD)/vecgauge.pc
 
 # ---- tests --------------------------------------------------------------
 UNIT_TESTS = $(patsubst tests/unit/%.c,$(BUILD)/tests/%,$(wildcard tests/unit/test_*.c))
-TEST_HELPERS = $(BUILD)/tests/inprocess_example $(BUILD)/tests/vgstat $(BUILD)/tests/vgpaired
+TEST_HELPERS = $(BUILD)/tests/inprocess_example $(BUILD)/tests/vgstat $(BUILD)/tests/vgpaired \
+               $(BUILD)/tests/vgbench
 TEST_CFLAGS := $(shell $(PKG_CONFIG) --cflags cmocka 2>/dev/null)
 TEST_LIBS   := $(shell $(PKG_CONFIG) --libs cmocka 2>/dev/null)
 

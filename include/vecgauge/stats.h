@@ -134,7 +134,7 @@ typedef struct vg_corr_estimate {
  * items i < n whose y[i] is not NaN, each with a bootstrap over the items
  * and its Fisher-z interval.
  *
- * Replicate r seeds a GSL mt19937 generator from (seed, stream, r) alone
+ * Replicate r seeds a GSL taus2 generator from (seed, stream, r) alone
  * and draws n items with replacement out of all n (src/stats/resample.h),
  * so its draws do not depend on y, on threads or on other replicates; the
  * statistics of the replicate are those of the drawn items with a defined

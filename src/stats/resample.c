@@ -20,12 +20,17 @@ uint64_t vg_resample_stream(const char *suite_id, const char *subset) {
     return splitmix64(a ^ splitmix64(b));
 }
 
-gsl_rng *vg_resample_rng_alloc(void) { return gsl_rng_alloc(gsl_rng_mt19937); }
+/* taus2 (L'Ecuyer 1996, maximally equidistributed combined Tausworthe,
+ * as GSL implements it): every replicate reseeds its generator, and
+ * taus2's seeding is a few steps where mt19937's fills 624 words; its
+ * draws are also about twice as fast. Both pass the usual tests at the
+ * few thousand draws a replicate takes. */
+gsl_rng *vg_resample_rng_alloc(void) { return gsl_rng_alloc(gsl_rng_taus2); }
 
 void vg_resample_seed(gsl_rng *rng, uint64_t seed, uint64_t stream, uint64_t replicate) {
     uint64_t s = splitmix64(splitmix64(seed) ^ stream);
     s = splitmix64(s ^ splitmix64(replicate));
-    /* gsl_rng_set takes an unsigned long; mt19937 uses 32 bits of it, and
+    /* gsl_rng_set takes an unsigned long; taus2 uses 32 bits of it, and
      * treats 0 as its default seed, which would collide: map 0 away. */
     unsigned long v = (unsigned long)(s ^ (s >> 32)) & 0xffffffffUL;
     gsl_rng_set(rng, v ? v : 0x5eedUL);

@@ -22,7 +22,7 @@
 /* The stream id of what is resampled (e.g. suite id and subset name). */
 VG_INTERNAL uint64_t vg_resample_stream(const char *suite_id, const char *subset);
 
-/* A new generator (gsl_rng_mt19937) or NULL when out of memory; free with
+/* A new generator (gsl_rng_taus2) or NULL when out of memory; free with
  * gsl_rng_free. */
 VG_INTERNAL gsl_rng *vg_resample_rng_alloc(void);
 
