@@ -54,9 +54,9 @@ COMMON_O  = common/error.o common/alloc.o common/arena.o common/strmap.o \
             common/numfmt.o common/version.o
 VECTORS_O = vectors/vectors.o vectors/load.o vectors/text.o
 SUITES_O  = suites/suite.o suites/fields.o suites/pairs.o suites/analogies.o
-SCORE_O   = score/similarity.o score/analogy.o
-STATS_O   = stats/rank.o stats/correlation.o stats/resample.o
-EVAL_O    = eval/results.o eval/evaluate.o eval/similarity_rows.o
+SCORE_O   = score/similarity.o score/analogy.o score/analogy_kernel.o
+STATS_O   = stats/rank.o stats/correlation.o stats/resample.o stats/wilson.o
+EVAL_O    = eval/results.o eval/evaluate.o eval/similarity_rows.o eval/analogy_rows.o
 REPORT_O  = report/csvout.o report/summary_md.o report/rundir.o
 CLI_O     = cli/main.o cli/util.o cli/cmd_score.o
 
@@ -69,7 +69,7 @@ BIN   = $(BUILD)/vecgauge
 
 # ---- tests --------------------------------------------------------------
 UNIT_TESTS = $(patsubst tests/unit/%.c,$(BUILD)/tests/%,$(wildcard tests/unit/test_*.c))
-TEST_HELPERS = $(BUILD)/tests/inprocess_example $(BUILD)/tests/vgstat
+TEST_HELPERS = $(BUILD)/tests/inprocess_example $(BUILD)/tests/vgstat $(BUILD)/tests/vganalogy
 TEST_CFLAGS := $(shell $(PKG_CONFIG) --cflags cmocka 2>/dev/null)
 TEST_LIBS   := $(shell $(PKG_CONFIG) --libs cmocka 2>/dev/null)
 
@@ -115,6 +115,10 @@ $(BUILD)/tests/inprocess_example: scripts/inprocess_example.c $(LIB)
 $(BUILD)/tests/vgstat: tests/tools/vgstat.c $(LIB)
 	@mkdir -p $(@D)
 	$(CC) $(CPPFLAGS) $(CFLAGS) -o $@ $< $(LIB) $(LDFLAGS) $(LDLIBS)
+
+$(BUILD)/tests/vganalogy: tests/tools/vganalogy.c src/score/analogy_impl.h $(LIB)
+	@mkdir -p $(@D)
+	$(CC) $(CPPFLAGS) -Isrc $(CFLAGS) -o $@ $< $(LIB) $(LDFLAGS) $(LDLIBS)
 
 $(GEN_DEMO): scripts/gen-demo.c
 	@mkdir -p $(@D)
