@@ -12,13 +12,15 @@
 
 static const char score_help[] =
     "Usage: vecgauge score [OPTION]... VECTORS...\n"
-    "Score one or more vector sets on word-pair suites and write a run directory.\n"
+    "Score one or more vector sets on word-pair and analogy suites and write a run\n"
+    "directory.\n"
     "\n"
     "A vector set is given as PATH or LABEL=PATH; without a label, the file name\n"
     "up to its first '.' is used.\n"
     "\n"
     "Suites:\n"
     "  -p, --pairs FILE       a word-pair file (word, word, rating); repeatable\n"
+    "      --analogies FILE   an analogy file (': section' lines, then 'a b c d'); repeatable\n"
     "\n"
     "Output:\n"
     "  -o, --out DIR          run directory to create (default: results/<UTC time>-<label>)\n"
@@ -27,6 +29,9 @@ static const char score_help[] =
     "      --fold-case        retry missing words Unicode case-folded\n"
     "      --seed N           random seed for resampling (default %u)\n"
     "      --bootstrap N      bootstrap replicates (default %u)\n"
+    "      --analogy-vocab N  analogy candidates: the first N rows of each set\n"
+    "                         (default %u; 0: every row)\n"
+    "      --keep-question-words  let a, b and c of a question be its answer\n"
     "  -j, --threads N        threads (default: one per CPU)\n"
     "\n"
     "  -h, --help             show this help and exit\n"
@@ -37,11 +42,13 @@ static const char score_help[] =
 typedef struct score_args {
     const char **pairs;
     size_t n_pairs;
+    const char **analogies;
+    size_t n_analogies;
     const char *out;
     vg_eval_options eval;
 } score_args;
 
-enum { OPT_FOLD = 256, OPT_SEED, OPT_BOOT };
+enum { OPT_FOLD = 256, OPT_SEED, OPT_BOOT, OPT_ANALOGIES, OPT_ANALOGY_VOCAB, OPT_KEEP_QWORDS };
 
 static const struct option long_opts[] = {
     {"pairs", required_argument, NULL, 'p'},
@@ -49,6 +56,9 @@ static const struct option long_opts[] = {
     {"fold-case", no_argument, NULL, OPT_FOLD},
     {"seed", required_argument, NULL, OPT_SEED},
     {"bootstrap", required_argument, NULL, OPT_BOOT},
+    {"analogies", required_argument, NULL, OPT_ANALOGIES},
+    {"analogy-vocab", required_argument, NULL, OPT_ANALOGY_VOCAB},
+    {"keep-question-words", no_argument, NULL, OPT_KEEP_QWORDS},
     {"threads", required_argument, NULL, 'j'},
     {"help", no_argument, NULL, 'h'},
     {NULL, 0, NULL, 0}};
@@ -57,12 +67,13 @@ static const struct option long_opts[] = {
  * similarity-only run needs to keep. Borrowed pointers into the suites. */
 static const char **suite_words(vg_suite *const *suites, size_t n, size_t *count) {
     size_t total = 0;
-    for (size_t k = 0; k < n; k++) total += 2 * suites[k]->n_items;
+    for (size_t k = 0; k < n; k++)
+        if (suites[k]->task == VG_TASK_SIMILARITY) total += 2 * suites[k]->n_items;
     const char **w = calloc(total ? total : 1, sizeof *w);
     if (!w) return NULL;
     size_t m = 0;
     for (size_t k = 0; k < n; k++)
-        for (size_t i = 0; i < suites[k]->n_items; i++) {
+        for (size_t i = 0; suites[k]->task == VG_TASK_SIMILARITY && i < suites[k]->n_items; i++) {
             w[m++] = suites[k]->pairs[i].w1;
             w[m++] = suites[k]->pairs[i].w2;
         }
@@ -109,7 +120,8 @@ int vg_cmd_score(int argc, char **argv) {
     vg_eval_options_init(&a.eval);
     int rc = VG_EXIT_FAIL;
     a.pairs = calloc((size_t)argc, sizeof *a.pairs);
-    if (!a.pairs) {
+    a.analogies = calloc((size_t)argc, sizeof *a.analogies);
+    if (!a.pairs || !a.analogies) {
         vg_cli_fail("out of memory");
         return VG_EXIT_FAIL;
     }
@@ -120,6 +132,17 @@ int vg_cmd_score(int argc, char **argv) {
     while ((c = getopt_long(argc, argv, ":p:o:j:h", long_opts, NULL)) != -1) {
         switch (c) {
         case 'p': a.pairs[a.n_pairs++] = optarg; break;
+        case OPT_ANALOGIES: a.analogies[a.n_analogies++] = optarg; break;
+        case OPT_KEEP_QWORDS: a.eval.score.keep_question_words = 1; break;
+        case OPT_ANALOGY_VOCAB:
+            if (vg_cli_parse_u64(optarg, 0, SIZE_MAX, &u) != 0) {
+                rc = vg_cli_usage_error("score",
+                                        "--analogy-vocab needs a non-negative integer, got '%s'",
+                                        optarg);
+                goto done;
+            }
+            a.eval.score.analogy_vocab = (size_t)u;
+            break;
         case 'o': a.out = optarg; break;
         case OPT_FOLD: a.eval.score.fold_case = 1; break;
         case OPT_SEED:
@@ -145,7 +168,8 @@ int vg_cmd_score(int argc, char **argv) {
             a.eval.score.threads = (unsigned)u;
             break;
         case 'h':
-            printf(score_help, (unsigned)VG_DEFAULT_SEED, (unsigned)VG_DEFAULT_BOOTSTRAP);
+            printf(score_help, (unsigned)VG_DEFAULT_SEED, (unsigned)VG_DEFAULT_BOOTSTRAP,
+                   (unsigned)VG_DEFAULT_ANALOGY_VOCAB);
             rc = VG_EXIT_OK;
             goto done;
         case ':':
@@ -161,14 +185,15 @@ int vg_cmd_score(int argc, char **argv) {
         rc = vg_cli_usage_error("score", "no vector set given");
         goto done;
     }
-    if (a.n_pairs == 0) {
-        rc = vg_cli_usage_error("score", "no suite given (use --pairs FILE)");
+    if (a.n_pairs == 0 && a.n_analogies == 0) {
+        rc = vg_cli_usage_error("score", "no suite given (use --pairs FILE or --analogies FILE)");
         goto done;
     }
+    size_t n_suites = a.n_pairs + a.n_analogies;
 
     vg_error err;
     vg_error_clear(&err);
-    vg_suite **suites = calloc(a.n_pairs, sizeof *suites);
+    vg_suite **suites = calloc(n_suites, sizeof *suites);
     vg_vector_set *sets = calloc((size_t)n_sets, sizeof *sets);
     char **labels = calloc((size_t)n_sets, sizeof *labels);
     char **paths = calloc((size_t)n_sets, sizeof *paths);
@@ -182,6 +207,13 @@ int vg_cmd_score(int argc, char **argv) {
     }
     for (size_t k = 0; k < a.n_pairs; k++) {
         if (vg_suite_read_pairs(a.pairs[k], NULL, NULL, &suites[k], &err) != VG_OK) {
+            vg_cli_error(&err);
+            goto cleanup;
+        }
+    }
+    for (size_t k = 0; k < a.n_analogies; k++) {
+        if (vg_suite_read_analogies(a.analogies[k], NULL, NULL, VG_ANALOGY_AUTO,
+                                    &suites[a.n_pairs + k], &err) != VG_OK) {
             vg_cli_error(&err);
             goto cleanup;
         }
@@ -201,7 +233,7 @@ int vg_cmd_score(int argc, char **argv) {
             }
     }
     size_t n_words = 0;
-    words = suite_words(suites, a.n_pairs, &n_words);
+    words = suite_words(suites, n_suites, &n_words);
     if (!words) {
         vg_cli_fail("out of memory");
         goto cleanup;
@@ -213,13 +245,21 @@ int vg_cmd_score(int argc, char **argv) {
         lo.fold_case = a.eval.score.fold_case;
         lo.keep_words = words;
         lo.n_keep_words = n_words;
+        /* Analogy suites need the candidate rows too: the first N of the
+         * file, or every row. */
+        if (a.n_analogies > 0) {
+            if (a.eval.score.analogy_vocab == 0)
+                lo.keep_words = NULL;
+            else
+                lo.keep_first = a.eval.score.analogy_vocab;
+        }
         if (vg_vectors_load(paths[i], &lo, &vecs[i], &err) != VG_OK) {
             vg_cli_error(&err);
             goto cleanup;
         }
         sets[i] = (vg_vector_set){labels[i], paths[i], vecs[i]};
     }
-    if (vg_evaluate(sets, (size_t)n_sets, (const vg_suite *const *)suites, a.n_pairs, &a.eval, &res,
+    if (vg_evaluate(sets, (size_t)n_sets, (const vg_suite *const *)suites, n_suites, &a.eval, &res,
                     &err) != VG_OK) {
         vg_cli_error(&err);
         goto cleanup;
@@ -253,7 +293,7 @@ cleanup:
     vg_results_free(res);
     free(words);
     for (int i = 0; vecs && i < n_sets; i++) vg_vectors_free(vecs[i]);
-    for (size_t k = 0; suites && k < a.n_pairs; k++) vg_suite_free(suites[k]);
+    for (size_t k = 0; suites && k < n_suites; k++) vg_suite_free(suites[k]);
     for (int i = 0; labels && i < n_sets; i++) free(labels[i]);
     for (int i = 0; paths && i < n_sets; i++) free(paths[i]);
     free(vecs);
@@ -263,5 +303,6 @@ cleanup:
     free(suites);
 done:
     free(a.pairs);
+    free(a.analogies);
     return rc;
 }

@@ -75,11 +75,131 @@ static void similarity_table(const vg_results *r, FILE *fp) {
     fputc('\n', fp);
 }
 
+/* ---- analogies ------------------------------------------------------ */
+
+static const char *const method_titles[VG_METHOD_COUNT] = {"3CosAdd", "3CosMul",
+                                                           "PairDirection", "only-b"};
+
+static int any_analogy(const vg_results *r) {
+    for (size_t k = 0; k < r->n_suites; k++)
+        if (r->suites[k]->task == VG_TASK_ANALOGY) return 1;
+    return 0;
+}
+
+/* Index of the set with the highest accuracy on (suite k, subset, metric
+ * m), or (size_t)-1. Ties keep the first set. */
+static size_t best_subset(const vg_results *r, size_t k, const char *subset, vg_metric m) {
+    size_t best = (size_t)-1;
+    double bv = -INFINITY;
+    for (size_t i = 0; i < r->n_sets; i++) {
+        const vg_score_row *row = vg_results_find(r, i, k, subset, m, 0);
+        if (row && !isnan(row->value) && row->value > bv) {
+            bv = row->value;
+            best = i;
+        }
+    }
+    return best;
+}
+
+/* One cell: accuracy (used/items, coverage), bold when best. */
+static void accuracy_cell(FILE *fp, const vg_score_row *row, int best) {
+    char v[32];
+    if (!row) {
+        fputs(" |", fp);
+        return;
+    }
+    vg_format_fixed(row->value, 3, v);
+    double cov = row->n_items ? 100.0 * (double)row->n_used / (double)row->n_items : 0;
+    fprintf(fp, " %s%s%s (%zu/%zu, %.1f%%) |", best ? "**" : "", v, best ? "**" : "",
+            row->n_used, row->n_items, cov);
+}
+
+static void set_columns(const vg_results *r, FILE *fp, const char *first, const char *align) {
+    fputs(first, fp);
+    for (size_t i = 0; i < r->n_sets; i++) {
+        fputc(' ', fp);
+        vg_md_cell(fp, r->labels[i]);
+        fputs(" |", fp);
+    }
+    fprintf(fp, "\n%s", align);
+    for (size_t i = 0; i < r->n_sets; i++) fputs("---:|", fp);
+    fputc('\n', fp);
+}
+
+static void analogy_table(const vg_results *r, FILE *fp) {
+    if (!any_analogy(r)) return;
+    const vg_score_options *so = &r->options.score;
+    fputs("## Analogies: accuracy\n\n", fp);
+    fputs("Cells: accuracy on the covered questions (questions used / questions, coverage). "
+          "**Bold**: the best set on that suite and method. ",
+          fp);
+    if (so->analogy_vocab)
+        fprintf(fp, "Candidates: the first %zu rows of each vector set. ", so->analogy_vocab);
+    else
+        fputs("Candidates: every row of each vector set. ", fp);
+    if (so->keep_question_words)
+        fputs("**Question words kept** (--keep-question-words): a, b and c may be given as the "
+              "answer, so these accuracies are not comparable with published ones.\n\n",
+              fp);
+    else
+        fputs("a, b and c of a question are never its answer (common practice).\n\n", fp);
+    set_columns(r, fp, "| suite | method | questions |", "|---|---|---:|");
+    for (size_t k = 0; k < r->n_suites; k++) {
+        const vg_suite *s = r->suites[k];
+        if (s->task != VG_TASK_ANALOGY) continue;
+        for (int m = 0; m < VG_METHOD_COUNT; m++) {
+            vg_metric metric = (vg_metric)(VG_METRIC_3COSADD + m);
+            size_t best = best_subset(r, k, "", metric);
+            fputs("| ", fp);
+            vg_md_cell(fp, s->id);
+            fprintf(fp, " | %s | %zu |", method_titles[m], s->n_items);
+            for (size_t i = 0; i < r->n_sets; i++)
+                accuracy_cell(fp, vg_results_find(r, i, k, "", metric, 0), i == best);
+            fputc('\n', fp);
+        }
+    }
+    fputc('\n', fp);
+
+    /* Per section and group, 3CosAdd (the other methods are in scores.csv). */
+    for (size_t k = 0; k < r->n_suites; k++) {
+        const vg_suite *s = r->suites[k];
+        if (s->task != VG_TASK_ANALOGY) continue;
+        int parts = 0;
+        for (size_t e = 0; e < r->n_rows; e++)
+            parts |= r->rows[e].suite == k && r->rows[e].set == 0 && *r->rows[e].subset;
+        if (!parts) continue;
+        int groups = 0;
+        for (size_t e = 0; e < s->n_sections; e++) groups |= s->sections[e].group != NULL;
+        fputs("### ", fp);
+        vg_md_cell(fp, s->id);
+        fputs(groups ? " by section and group: 3CosAdd\n\n" : " by section: 3CosAdd\n\n", fp);
+        set_columns(r, fp, groups ? "| section or group | questions |" : "| section | questions |",
+                    "|---|---:|");
+        for (size_t e = 0; e < r->n_rows; e++) {
+            const vg_score_row *row = &r->rows[e];
+            if (row->suite != k || row->set != 0 || !*row->subset ||
+                row->metric != VG_METRIC_3COSADD || row->all_items)
+                continue;
+            size_t best = best_subset(r, k, row->subset, VG_METRIC_3COSADD);
+            fputs("| ", fp);
+            vg_md_cell(fp, row->subset);
+            fprintf(fp, " | %zu |", row->n_items);
+            for (size_t i = 0; i < r->n_sets; i++)
+                accuracy_cell(fp, vg_results_find(r, i, k, row->subset, VG_METRIC_3COSADD, 0),
+                              i == best);
+            fputc('\n', fp);
+        }
+        fputc('\n', fp);
+    }
+}
+
 static void coverage_warnings(const vg_results *r, FILE *fp) {
     int header = 0;
     for (size_t i = 0; i < r->n_sets; i++) {
         for (size_t k = 0; k < r->n_suites; k++) {
-            const vg_score_row *row = vg_results_find(r, i, k, "", VG_METRIC_SPEARMAN, 0);
+            int ana = r->suites[k]->task == VG_TASK_ANALOGY;
+            vg_metric metric = ana ? VG_METRIC_3COSADD : VG_METRIC_SPEARMAN;
+            const vg_score_row *row = vg_results_find(r, i, k, "", metric, 0);
             if (!row || !row->n_items) continue;
             double cov = (double)row->n_used / (double)row->n_items;
             if (cov >= VG_COVERAGE_WARN) continue;
@@ -87,16 +207,22 @@ static void coverage_warnings(const vg_results *r, FILE *fp) {
                 fprintf(fp, "## Coverage warnings\n\n");
                 header = 1;
             }
-            const vg_score_row *all = vg_results_find(r, i, k, "", VG_METRIC_SPEARMAN, 1);
+            const vg_score_row *all = vg_results_find(r, i, k, "", metric, 1);
             char v[32];
             fputs("- ", fp);
             vg_md_cell(fp, r->labels[i]);
             fputs(" on ", fp);
             vg_md_cell(fp, r->suites[k]->id);
-            fprintf(fp, ": %.1f%% of pairs covered (under %.0f%%); on all pairs, uncovered ones "
-                        "scored 0, rho = %s.\n",
-                    100.0 * cov, 100.0 * VG_COVERAGE_WARN,
-                    vg_format_fixed(all ? all->value : NAN, 3, v));
+            if (ana)
+                fprintf(fp, ": %.1f%% of questions covered (under %.0f%%); on all questions, "
+                            "uncovered ones counted wrong, 3CosAdd accuracy = %s.\n",
+                        100.0 * cov, 100.0 * VG_COVERAGE_WARN,
+                        vg_format_fixed(all ? all->value : NAN, 3, v));
+            else
+                fprintf(fp, ": %.1f%% of pairs covered (under %.0f%%); on all pairs, uncovered "
+                            "ones scored 0, rho = %s.\n",
+                        100.0 * cov, 100.0 * VG_COVERAGE_WARN,
+                        vg_format_fixed(all ? all->value : NAN, 3, v));
         }
     }
     if (header) fputc('\n', fp);
@@ -109,6 +235,27 @@ static void options_section(const vg_results *r, FILE *fp) {
     fprintf(fp, "- bootstrap replicates: %zu\n", o->bootstrap);
     fprintf(fp, "- confidence level: %g\n", o->ci);
     fprintf(fp, "- case folding: %s\n", o->score.fold_case ? "on" : "off");
+    if (any_analogy(r)) {
+        if (o->score.analogy_vocab)
+            fprintf(fp, "- analogy candidates: the first %zu rows of each vector set",
+                    o->score.analogy_vocab);
+        else
+            fputs("- analogy candidates: every row of each vector set", fp);
+        /* The rows actually used, from any analogy block of each set. */
+        for (size_t i = 0; i < r->n_sets; i++)
+            for (size_t k = 0; k < r->n_suites; k++) {
+                const vg_analogy_scores *a = r->blocks[i * r->n_suites + k].ana;
+                if (!a) continue;
+                fprintf(fp, "%s", i == 0 ? " (rows used: " : ", ");
+                vg_md_cell(fp, r->labels[i]);
+                fprintf(fp, " %zu", a->n_candidates);
+                break;
+            }
+        fputs(r->n_sets ? ")\n" : "\n", fp);
+        fprintf(fp, "- question words (a, b, c) as answers: %s\n",
+                o->score.keep_question_words ? "kept (--keep-question-words)"
+                                             : "excluded (common practice)");
+    }
     fputc('\n', fp);
 }
 
@@ -156,6 +303,7 @@ vg_status vg_report_summary_md(const vg_results *r, const vg_provenance *prov, F
     fprintf(fp, "%zu vector set%s on %zu suite%s. Higher is better for every score.\n\n",
             r->n_sets, r->n_sets == 1 ? "" : "s", r->n_suites, r->n_suites == 1 ? "" : "s");
     similarity_table(r, fp);
+    analogy_table(r, fp);
     coverage_warnings(r, fp);
     options_section(r, fp);
     provenance_section(r, prov, fp);
@@ -181,6 +329,21 @@ vg_status vg_report_text_table(const vg_results *r, FILE *fp, vg_error *err) {
         }
         fputc('\n', fp);
     }
+    for (size_t k = 0; k < r->n_suites; k++) {
+        if (r->suites[k]->task != VG_TASK_ANALOGY) continue;
+        for (int m = 0; m < VG_METHOD_COUNT; m++) {
+            vg_metric metric = (vg_metric)(VG_METRIC_3COSADD + m);
+            fprintf(fp, "%-*s  %-10s", (int)w0, r->suites[k]->id, vg_metric_name(metric));
+            for (size_t i = 0; i < r->n_sets; i++) {
+                const vg_score_row *row = vg_results_find(r, i, k, "", metric, 0);
+                char v[32];
+                fprintf(fp, "  %*s", (int)wc, vg_format_fixed(row ? row->value : NAN, 3, v));
+            }
+            fputc('\n', fp);
+        }
+    }
+    if (r->options.score.keep_question_words && any_analogy(r))
+        fputs("(analogies: question words kept as candidates)\n", fp);
     if (ferror(fp)) return vg_error_set(err, VG_EIO, NULL, 0, "write to standard output failed");
     return VG_OK;
 }
