@@ -8,6 +8,8 @@
  *       3cosmul, pairdir and only_b ("-" when none), tab-separated.
  *       -k keeps the question words as candidates; -K forces a kernel
  *       variant (scalar, avx, avx512f).
+ *   vganalogy wilson K N LEVEL
+ *       The Wilson interval of K successes in N trials ("low high").
  *   vganalogy bench MATRIX ROWS DIMS SUITE REPS [-j THREADS]
  *       MATRIX is ROWS x DIMS raw float32 (row i is the word "w<i>").
  *       Times REPS runs of the whole scorer and of its sgemm phase alone,
@@ -212,9 +214,17 @@ static int cmd_bench(int argc, char **argv) {
 }
 
 int main(int argc, char **argv) {
+    if (argc == 5 && strcmp(argv[1], "wilson") == 0) {
+        double lo, hi;
+        vg_stats_wilson(strtoull(argv[2], NULL, 10), strtoull(argv[3], NULL, 10),
+                        strtod(argv[4], NULL), &lo, &hi);
+        printf("%.17g %.17g\n", lo, hi);
+        return 0;
+    }
     if (argc >= 4 && strcmp(argv[1], "answer") == 0) return cmd_answer(argc, argv);
     if (argc >= 2 && strcmp(argv[1], "bench") == 0) return cmd_bench(argc, argv);
     fprintf(stderr, "usage: vganalogy answer VECTORS SUITE [-k] [-n N] [-j T] [-K KERNELS]\n"
+                    "       vganalogy wilson K N LEVEL\n"
                     "       vganalogy bench MATRIX ROWS DIMS SUITE REPS [-j THREADS]\n");
     return 2;
 }
