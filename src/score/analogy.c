@@ -47,13 +47,12 @@ const char *vg_method_name(vg_method m) {
     return "unknown";
 }
 
-/* A question all of whose words are candidates. */
+/* A question all of whose words are candidates (what the scan reads of it
+ * is apart, in vg_ana_qhot). */
 typedef struct question {
     size_t item;             /* index in the suite */
     size_t ra, rb, rc;       /* candidate rows of a, b, c */
-    uint32_t wa, wb, wc;     /* their rows in Qhat and S */
-    uint32_t sa, sb, sc;     /* their slots among the a, b and c words */
-    float k;                 /* c^.a^ - c^.b^ (PairDirection) */
+    uint32_t sb;             /* b's slot among the b words (only-b) */
     int pairdir_ok;          /* b^ - a^ is not the zero vector */
 } question;
 
@@ -64,6 +63,7 @@ typedef struct worker {
     float *Rc;               /* n_c x NB: 1 / |x^ - c^| of the c words */
     float *tmp;              /* 3 x NB scores of one question */
     float *inv;              /* NB: 1 / |x| of the block (NaN past the end) */
+    uint32_t *hits;          /* questions the scan of a block flagged */
     float *best_v;           /* 3 per question */
     size_t *best_i;
     float *top_v;            /* TOPB per b word */
@@ -81,6 +81,7 @@ typedef struct plan {
     uint32_t *a_word, *b_word, *c_word; /* slot -> row of S */
     size_t n_q;
     question *q;
+    vg_ana_qhot *hot;        /* n_q, what the scan reads */
     int keep;
     unsigned flags;
     const vg_ana_kernels *kern;
@@ -164,46 +165,28 @@ static void run_block(plan *p, worker *w, size_t blk) {
     for (size_t s = 0; s < p->n_c; s++)
         K->inv_distance(w->S + (size_t)p->c_word[s] * NB, w->Rc + s * NB);
 
-    for (size_t i = 0; i < p->n_q; i++) {
+    /* The fast pass flags the questions this block may improve; only
+     * those get their scores written out and searched for the row. */
+    size_t n_hits = K->scan(w->S, w->Ia, w->Rc, p->hot, p->n_q, w->best_v, w->hits);
+    for (size_t h = 0; h < n_hits; h++) {
+        size_t i = w->hits[h];
         const question *q = &p->q[i];
-        const float *ca = w->S + (size_t)q->wa * NB, *cb = w->S + (size_t)q->wb * NB;
-        const float *cc = w->S + (size_t)q->wc * NB;
-        const float *ia = w->Ia + (size_t)q->sa * NB, *rc = w->Rc + (size_t)q->sc * NB;
         float *bv = w->best_v + VG_ANA_COMBINED * i;
         size_t *bi = w->best_i + VG_ANA_COMBINED * i;
-        /* Excluded candidates in this block: a, b, c for every method by
-         * default; with the question words kept, still c for
-         * PairDirection, where x - c is the zero vector. */
-        int ex = in_block(q->rc, j0, width) ||
-                 (!p->keep && (in_block(q->ra, j0, width) || in_block(q->rb, j0, width)));
-        if (!ex) {
-            float m[VG_ANA_COMBINED];
-            K->block_max(ca, cb, cc, ia, rc, q->k, m);
-            /* The fast pass only tells whether this block can improve a
-             * best; the scores are then recomputed to find the row. */
-            if (!(m[0] > bv[0] || m[1] > bv[1] || (q->pairdir_ok && m[2] > bv[2]))) continue;
-        }
-        K->block_scores(ca, cb, cc, ia, rc, q->k, w->tmp);
-        if (ex) {
-            const size_t rows[3] = {q->ra, q->rb, q->rc};
-            for (int e = 0; e < 3; e++) {
-                if (!in_block(rows[e], j0, width)) continue;
-                for (int m = 0; m < VG_ANA_COMBINED; m++)
-                    if (!p->keep || (e == 2 && m == 2)) w->tmp[m * NB + (rows[e] - j0)] = NAN;
-            }
+        K->block_scores(w->S, w->Ia, w->Rc, &p->hot[i], w->tmp);
+        /* Excluded candidates: a, b, c for every method by default; with
+         * the question words kept, still c for PairDirection, where x - c
+         * is the zero vector. */
+        const size_t rows[3] = {q->ra, q->rb, q->rc};
+        for (int e = 0; e < 3; e++) {
+            if (!in_block(rows[e], j0, width)) continue;
+            for (int m = 0; m < VG_ANA_COMBINED; m++)
+                if (!p->keep || (e == 2 && m == 2)) w->tmp[m * NB + (rows[e] - j0)] = NAN;
         }
         for (int m = 0; m < VG_ANA_COMBINED; m++) {
-            if (m == 2 && !q->pairdir_ok) continue;
-            const float *t = w->tmp + m * NB;
-            float best = bv[m];
-            size_t at = VG_NOT_FOUND;
-            for (size_t j = 0; j < width; j++) {
-                if (t[j] > best) {
-                    best = t[j];
-                    at = j;
-                }
-            }
-            if (at != VG_NOT_FOUND) {
+            float best;
+            size_t at = K->first_max(w->tmp + m * NB, &best);
+            if (at != VG_NOT_FOUND && best > bv[m]) {
                 bv[m] = best;
                 bi[m] = j0 + at;
             }
@@ -241,6 +224,7 @@ static void plan_free(plan *p) {
             vg_free(w->Rc);
             vg_free(w->tmp);
             vg_free(w->inv);
+            vg_free(w->hits);
             vg_free(w->best_v);
             vg_free(w->best_i);
             vg_free(w->top_v);
@@ -255,6 +239,7 @@ static void plan_free(plan *p) {
     vg_free(p->b_word);
     vg_free(p->c_word);
     vg_free(p->q);
+    vg_free(p->hot);
 }
 
 /* A zeroed, 64-byte aligned array of n floats (at least one). */
@@ -284,13 +269,17 @@ static int workers_alloc(plan *p) {
         w->best_i = vg_calloc(p->n_q ? VG_ANA_COMBINED * p->n_q : 1, sizeof *w->best_i);
         w->top_v = vg_calloc(p->n_b ? TOPB * p->n_b : 1, sizeof *w->top_v);
         w->top_i = vg_calloc(p->n_b ? TOPB * p->n_b : 1, sizeof *w->top_i);
+        w->hits = vg_calloc(p->n_q ? p->n_q : 1, sizeof *w->hits);
         if (!w->S || !w->Ia || !w->Rc || !w->tmp || !w->inv || !w->best_v || !w->best_i ||
-            !w->top_v || !w->top_i)
+            !w->top_v || !w->top_i || !w->hits)
             return -1;
         for (size_t i = 0; i < VG_ANA_COMBINED * p->n_q; i++) {
             w->best_v[i] = -INFINITY;
             w->best_i[i] = VG_NOT_FOUND;
         }
+        /* PairDirection is undefined when b^ = a^: a best nothing exceeds. */
+        for (size_t i = 0; i < p->n_q; i++)
+            if (!p->q[i].pairdir_ok) w->best_v[VG_ANA_COMBINED * i + 2] = INFINITY;
         for (size_t i = 0; i < TOPB * p->n_b; i++) {
             w->top_v[i] = -INFINITY;
             w->top_i[i] = VG_NOT_FOUND;
@@ -325,7 +314,8 @@ static int plan_words(plan *p, const vg_vectors *v) {
     size_t nq;
     if (vg_mul_overflow(p->n_words, p->dims, &nq)) goto done;
     p->qhat = alloc_floats(nq);
-    if (!p->word_row || !p->a_word || !p->b_word || !p->c_word || !p->qhat) goto done;
+    p->hot = vg_calloc(p->n_q ? p->n_q : 1, sizeof *p->hot);
+    if (!p->word_row || !p->a_word || !p->b_word || !p->c_word || !p->qhat || !p->hot) goto done;
     memcpy(p->word_row, all, p->n_words * sizeof *all);
     for (size_t s = 0; s < p->n_a; s++) p->a_word[s] = index_of(all, p->n_words, ra[s]);
     for (size_t s = 0; s < p->n_b; s++) p->b_word[s] = index_of(all, p->n_words, rb[s]);
@@ -342,14 +332,15 @@ static int plan_words(plan *p, const vg_vectors *v) {
     }
     for (size_t i = 0; i < p->n_q; i++) {
         question *q = &p->q[i];
-        q->wa = index_of(all, p->n_words, q->ra);
-        q->wb = index_of(all, p->n_words, q->rb);
-        q->wc = index_of(all, p->n_words, q->rc);
-        q->sa = index_of(ra, p->n_a, q->ra);
+        vg_ana_qhot *h = &p->hot[i];
+        h->wa = index_of(all, p->n_words, q->ra);
+        h->wb = index_of(all, p->n_words, q->rb);
+        h->wc = index_of(all, p->n_words, q->rc);
+        h->sa = index_of(ra, p->n_a, q->ra);
+        h->sc = index_of(rc, p->n_c, q->rc);
         q->sb = index_of(rb, p->n_b, q->rb);
-        q->sc = index_of(rc, p->n_c, q->rc);
-        const float *a = p->qhat + (size_t)q->wa * p->dims, *b = p->qhat + (size_t)q->wb * p->dims;
-        const float *c = p->qhat + (size_t)q->wc * p->dims;
+        const float *a = p->qhat + (size_t)h->wa * p->dims, *b = p->qhat + (size_t)h->wb * p->dims;
+        const float *c = p->qhat + (size_t)h->wc * p->dims;
         double ca = 0, cb = 0, ba = 0;
         for (size_t d = 0; d < p->dims; d++) {
             ca += (double)c[d] * a[d];
@@ -357,7 +348,7 @@ static int plan_words(plan *p, const vg_vectors *v) {
             double e = (double)b[d] - a[d];
             ba += e * e;
         }
-        q->k = (float)(ca - cb);
+        h->k = (float)(ca - cb);
         q->pairdir_ok = ba > 0;
     }
     rcode = 0;

@@ -14,10 +14,11 @@
  *
  * The kernels below work on whole blocks (VG_ANA_BLOCK floats, 64-byte
  * aligned); the columns past the last candidate hold NaN, which no
- * comparison ever selects. Each kernel exists for AVX-512F, AVX and plain C,
- * all with the same IEEE operations in the same order (no fused
- * multiply-add, no reassociation), so every variant gives bit-identical
- * values and the choice of machine does not change an answer.
+ * comparison ever selects. Each kernel exists for AVX-512F, AVX2 (with FMA) and
+ * plain C, all with the same IEEE operations in the same order (a fused
+ * multiply-add only where it rounds as the separate operations do; no
+ * reassociation), so every variant gives bit-identical values and the
+ * choice of machine does not change an answer.
  */
 #ifndef VG_ANALOGY_IMPL_H
 #define VG_ANALOGY_IMPL_H
@@ -41,10 +42,18 @@
 /* The three methods that combine a, b and c (only-b is kept apart). */
 #define VG_ANA_COMBINED 3
 
+/* What the scan of a block needs of a question (24 bytes, read once per
+ * question and block). */
+typedef struct vg_ana_qhot {
+    uint32_t wa, wb, wc; /* the cosine rows of a, b, c in S */
+    uint32_t sa, sc;     /* the 1/(cos'+e) row of a, the 1/|x^ - c^| row of c */
+    float k;             /* c^.a^ - c^.b^ */
+} vg_ana_qhot;
+
 /* Block kernels, one set per instruction set. Rows are VG_ANA_BLOCK
  * floats. */
 typedef struct vg_ana_kernels {
-    const char *name; /* "avx512f", "avx", "scalar" */
+    const char *name; /* "avx512f", "avx2", "scalar" */
     /* s[j] *= inv[j] (cosines from dot products). */
     void (*scale)(float *s, const float *inv);
     /* out[j] = 1 / ((s[j] + 1) / 2 + e): the denominator of 3CosMul. */
@@ -52,15 +61,22 @@ typedef struct vg_ana_kernels {
     /* out[j] = 1 / sqrt(2 - 2 s[j]) = 1 / |x^ - c^|, NaN where 2 - 2 s[j]
      * is not positive (x points the way c does: no direction). */
     void (*inv_distance)(const float *s, float *out);
-    /* Maxima over the block of the three combined scores (3CosAdd,
-     * 3CosMul, PairDirection up to a positive factor). ca, cb, cc are the
-     * cosine rows of a, b, c; ia the 1/(cos'+e) row of a; rc the
-     * 1/|x^ - c^| row of c; k = c^.a^ - c^.b^. NaN scores never win. */
-    void (*block_max)(const float *ca, const float *cb, const float *cc, const float *ia,
-                      const float *rc, float k, float out[VG_ANA_COMBINED]);
-    /* The same three scores, written to out[m * VG_ANA_BLOCK + j]. */
-    void (*block_scores)(const float *ca, const float *cb, const float *cc, const float *ia,
-                         const float *rc, float k, float *out);
+    /* The fast pass over one block for every question: writes to hits
+     * (and counts) the questions i for which some combined score
+     * (3CosAdd, 3CosMul, PairDirection up to a positive factor) in the
+     * block exceeds best[3 i + method]. It is a filter: the scores of a
+     * hit are then recomputed with block_scores to find the row. S holds
+     * the cosine rows, Ia the 1/(cos'+e) rows, Rc the 1/|x^ - c^| rows.
+     * NaN scores never count. */
+    size_t (*scan)(const float *S, const float *Ia, const float *Rc, const vg_ana_qhot *q,
+                   size_t n, const float *best, uint32_t *hits);
+    /* The three scores of question q over the block, written to
+     * out[m * VG_ANA_BLOCK + j]. */
+    void (*block_scores)(const float *S, const float *Ia, const float *Rc,
+                         const vg_ana_qhot *q, float *out);
+    /* The first index of the maximum of x (NaN ignored) and, in *max, the
+     * maximum; VG_NOT_FOUND (and -inf) when every value is NaN. */
+    size_t (*first_max)(const float *x, float *max);
     /* Maximum of a row (NaN ignored; -inf if every value is NaN). */
     float (*row_max)(const float *x);
 } vg_ana_kernels;
@@ -68,7 +84,7 @@ typedef struct vg_ana_kernels {
 /* The fastest kernels this CPU runs. */
 VG_INTERNAL const vg_ana_kernels *vg_ana_kernels_best(void);
 
-/* The kernels named name ("avx512f", "avx", "scalar"), or NULL when the
+/* The kernels named name ("avx512f", "avx2", "scalar"), or NULL when the
  * name is unknown or this CPU cannot run them (tests compare variants). */
 VG_INTERNAL const vg_ana_kernels *vg_ana_kernels_get(const char *name);
 

@@ -1,14 +1,17 @@
 /* analogy_kernel.c - the per-block kernels of the analogy scorer, for
- * AVX-512F, AVX and plain C.
+ * AVX-512F, AVX2 with FMA, and plain C.
  * Part of vecgauge; MIT licence, see LICENSE.
  *
- * The combine-and-argmax of every question over a block is where the time
- * goes after sgemm, so it runs on the widest vectors the CPU has. Every
- * variant performs the same IEEE single-precision operations in the same
- * order: multiply and add are never fused (ISO C mode turns contraction
- * off in GCC; the pragma below does it for clang) and max(s, m) keeps m
- * when s is NaN, exactly as `s > m ? s : m`. So the variants agree to the
- * bit, which a unit test checks.
+ * The scan of every question over a block is where the time goes after
+ * sgemm, so it runs on the widest vectors the CPU has. Every variant
+ * performs the same IEEE single-precision operations in the same order,
+ * multiply and add never fused (ISO C mode turns contraction off in GCC;
+ * the pragma below does it for clang) except in (X + 1) / 2, computed as
+ * fma(X, 0.5, 0.5): the product by 0.5 is exact, so the fused and the
+ * separate forms round identically, and both equal (X + 1) / 2 since
+ * scaling by 0.5 commutes with rounding. max(s, m) keeps m when s is NaN,
+ * as `s > m ? s : m` does. So the variants agree to the bit, which a unit
+ * test checks.
  *
  * The scores, for candidate x with cosines A, B, C to a, b, c:
  *   3CosAdd        B - A + C                          (Mikolov et al. 2013)
@@ -18,8 +21,6 @@
  *                  of the question (Levy and Goldberg 2014):
  *                  (x^ - c^).(b^ - a^) = B - A - c^.b^ + c^.a^ and
  *                  |x^ - c^| = sqrt(2 - 2C) for unit x^, c^.
- * (X + 1) / 2 is computed as X * 0.5 + 0.5, which rounds to the same float:
- * the scaling by 0.5 is exact and commutes with rounding.
  */
 #include <math.h>
 #include <string.h>
@@ -31,6 +32,7 @@
 #endif
 
 #define NB VG_ANA_BLOCK
+#define MAXF(s, m) ((s) > (m) ? (s) : (m))
 
 /* ---- plain C --------------------------------------------------------- */
 
@@ -49,35 +51,52 @@ static void inv_distance_c(const float *s, float *out) {
     }
 }
 
-#define MAXF(s, m) ((s) > (m) ? (s) : (m))
-
-static void block_max_c(const float *ca, const float *cb, const float *cc, const float *ia,
-                        const float *rc, float k, float out[VG_ANA_COMBINED]) {
-    float m0 = -INFINITY, m1 = -INFINITY, m2 = -INFINITY;
-    for (size_t j = 0; j < NB; j++) {
-        float t = cb[j] - ca[j];
-        float s0 = t + cc[j];
-        float pb = cb[j] * 0.5f + 0.5f, pc = cc[j] * 0.5f + 0.5f;
-        float s1 = (pb * pc) * ia[j];
-        float s2 = (t + k) * rc[j];
-        m0 = MAXF(s0, m0);
-        m1 = MAXF(s1, m1);
-        m2 = MAXF(s2, m2);
+static size_t scan_c(const float *S, const float *Ia, const float *Rc, const vg_ana_qhot *q,
+                     size_t n, const float *best, uint32_t *hits) {
+    size_t h = 0;
+    for (size_t i = 0; i < n; i++) {
+        const float *ca = S + (size_t)q[i].wa * NB, *cb = S + (size_t)q[i].wb * NB;
+        const float *cc = S + (size_t)q[i].wc * NB;
+        const float *ia = Ia + (size_t)q[i].sa * NB, *rc = Rc + (size_t)q[i].sc * NB;
+        float k = q[i].k, m0 = -INFINITY, m1 = -INFINITY, m2 = -INFINITY;
+        for (size_t j = 0; j < NB; j++) {
+            float t = cb[j] - ca[j];
+            float pb = cb[j] * 0.5f + 0.5f, pc = cc[j] * 0.5f + 0.5f;
+            m0 = MAXF(t + cc[j], m0);
+            m1 = MAXF((pb * pc) * ia[j], m1);
+            m2 = MAXF((t + k) * rc[j], m2);
+        }
+        if (m0 > best[3 * i] || m1 > best[3 * i + 1] || m2 > best[3 * i + 2])
+            hits[h++] = (uint32_t)i;
     }
-    out[0] = m0;
-    out[1] = m1;
-    out[2] = m2;
+    return h;
 }
 
-static void block_scores_c(const float *ca, const float *cb, const float *cc, const float *ia,
-                           const float *rc, float k, float *out) {
+static void block_scores_c(const float *S, const float *Ia, const float *Rc,
+                           const vg_ana_qhot *q, float *out) {
+    const float *ca = S + (size_t)q->wa * NB, *cb = S + (size_t)q->wb * NB;
+    const float *cc = S + (size_t)q->wc * NB;
+    const float *ia = Ia + (size_t)q->sa * NB, *rc = Rc + (size_t)q->sc * NB;
     for (size_t j = 0; j < NB; j++) {
         float t = cb[j] - ca[j];
         float pb = cb[j] * 0.5f + 0.5f, pc = cc[j] * 0.5f + 0.5f;
         out[j] = t + cc[j];
         out[NB + j] = (pb * pc) * ia[j];
-        out[2 * NB + j] = (t + k) * rc[j];
+        out[2 * NB + j] = (t + q->k) * rc[j];
     }
+}
+
+static size_t first_max_c(const float *x, float *max) {
+    float m = -INFINITY;
+    size_t at = VG_NOT_FOUND;
+    for (size_t j = 0; j < NB; j++) {
+        if (x[j] > m) {
+            m = x[j];
+            at = j;
+        }
+    }
+    *max = m;
+    return at;
 }
 
 static float row_max_c(const float *x) {
@@ -86,33 +105,33 @@ static float row_max_c(const float *x) {
     return m;
 }
 
-static const vg_ana_kernels kernels_c = {"scalar",      scale_c,        mul_denominator_c,
-                                         inv_distance_c, block_max_c,   block_scores_c,
-                                         row_max_c};
+static const vg_ana_kernels kernels_c = {"scalar",       scale_c,        mul_denominator_c,
+                                         inv_distance_c, scan_c,         block_scores_c,
+                                         first_max_c,    row_max_c};
 
 #if defined(__x86_64__) && defined(__GNUC__)
 #include <immintrin.h>
 #define HAVE_X86 1
 
-/* ---- AVX (8 lanes) --------------------------------------------------- */
+/* ---- AVX2 with FMA (8 lanes) ----------------------------------------- */
 
-#define AVX __attribute__((target("avx")))
+#define AVX2 __attribute__((target("avx2,fma")))
 
-AVX static void scale_avx(float *s, const float *inv) {
+AVX2 static void scale_avx2(float *s, const float *inv) {
     for (size_t j = 0; j < NB; j += 8)
         _mm256_store_ps(s + j, _mm256_mul_ps(_mm256_load_ps(s + j), _mm256_load_ps(inv + j)));
 }
 
-AVX static void mul_denominator_avx(const float *s, float *out) {
+AVX2 static void mul_denominator_avx2(const float *s, float *out) {
     const __m256 half = _mm256_set1_ps(0.5f), eps = _mm256_set1_ps(VG_ANA_EPS),
                  one = _mm256_set1_ps(1.0f);
     for (size_t j = 0; j < NB; j += 8) {
-        __m256 p = _mm256_add_ps(_mm256_mul_ps(_mm256_load_ps(s + j), half), half);
+        __m256 p = _mm256_fmadd_ps(_mm256_load_ps(s + j), half, half);
         _mm256_store_ps(out + j, _mm256_div_ps(one, _mm256_add_ps(p, eps)));
     }
 }
 
-AVX static void inv_distance_avx(const float *s, float *out) {
+AVX2 static void inv_distance_avx2(const float *s, float *out) {
     const __m256 two = _mm256_set1_ps(2.0f), one = _mm256_set1_ps(1.0f),
                  zero = _mm256_setzero_ps(), nan = _mm256_set1_ps(NAN);
     for (size_t j = 0; j < NB; j += 8) {
@@ -123,41 +142,44 @@ AVX static void inv_distance_avx(const float *s, float *out) {
     }
 }
 
-AVX static float hmax_avx(__m256 m) {
-    float l[8];
-    _mm256_storeu_ps(l, m);
-    float r = l[0];
-    for (int i = 1; i < 8; i++) r = MAXF(l[i], r);
-    return r;
-}
-
-AVX static void block_max_avx(const float *ca, const float *cb, const float *cc, const float *ia,
-                              const float *rc, float k, float out[VG_ANA_COMBINED]) {
-    const __m256 half = _mm256_set1_ps(0.5f), kv = _mm256_set1_ps(k);
-    __m256 m0 = _mm256_set1_ps(-INFINITY), m1 = m0, m2 = m0;
-    for (size_t j = 0; j < NB; j += 8) {
-        __m256 b = _mm256_load_ps(cb + j), c = _mm256_load_ps(cc + j);
-        __m256 t = _mm256_sub_ps(b, _mm256_load_ps(ca + j));
-        m0 = _mm256_max_ps(_mm256_add_ps(t, c), m0);
-        __m256 pb = _mm256_add_ps(_mm256_mul_ps(b, half), half);
-        __m256 pc = _mm256_add_ps(_mm256_mul_ps(c, half), half);
-        m1 = _mm256_max_ps(_mm256_mul_ps(_mm256_mul_ps(pb, pc), _mm256_load_ps(ia + j)), m1);
-        m2 = _mm256_max_ps(_mm256_mul_ps(_mm256_add_ps(t, kv), _mm256_load_ps(rc + j)), m2);
+AVX2 static size_t scan_avx2(const float *S, const float *Ia, const float *Rc,
+                             const vg_ana_qhot *q, size_t n, const float *best, uint32_t *hits) {
+    const __m256 half = _mm256_set1_ps(0.5f);
+    size_t h = 0;
+    for (size_t i = 0; i < n; i++) {
+        const float *ca = S + (size_t)q[i].wa * NB, *cb = S + (size_t)q[i].wb * NB;
+        const float *cc = S + (size_t)q[i].wc * NB;
+        const float *ia = Ia + (size_t)q[i].sa * NB, *rc = Rc + (size_t)q[i].sc * NB;
+        const __m256 kv = _mm256_set1_ps(q[i].k);
+        __m256 m0 = _mm256_set1_ps(-INFINITY), m1 = m0, m2 = m0;
+        for (size_t j = 0; j < NB; j += 8) {
+            __m256 b = _mm256_load_ps(cb + j), c = _mm256_load_ps(cc + j);
+            __m256 t = _mm256_sub_ps(b, _mm256_load_ps(ca + j));
+            m0 = _mm256_max_ps(_mm256_add_ps(t, c), m0);
+            __m256 pb = _mm256_fmadd_ps(b, half, half), pc = _mm256_fmadd_ps(c, half, half);
+            m1 = _mm256_max_ps(_mm256_mul_ps(_mm256_mul_ps(pb, pc), _mm256_load_ps(ia + j)), m1);
+            m2 = _mm256_max_ps(_mm256_mul_ps(_mm256_add_ps(t, kv), _mm256_load_ps(rc + j)), m2);
+        }
+        /* Any lane above the best so far: no horizontal maximum needed. */
+        __m256 g = _mm256_or_ps(_mm256_cmp_ps(m0, _mm256_set1_ps(best[3 * i]), _CMP_GT_OQ),
+                                _mm256_cmp_ps(m1, _mm256_set1_ps(best[3 * i + 1]), _CMP_GT_OQ));
+        g = _mm256_or_ps(g, _mm256_cmp_ps(m2, _mm256_set1_ps(best[3 * i + 2]), _CMP_GT_OQ));
+        if (_mm256_movemask_ps(g)) hits[h++] = (uint32_t)i;
     }
-    out[0] = hmax_avx(m0);
-    out[1] = hmax_avx(m1);
-    out[2] = hmax_avx(m2);
+    return h;
 }
 
-AVX static void block_scores_avx(const float *ca, const float *cb, const float *cc,
-                                 const float *ia, const float *rc, float k, float *out) {
-    const __m256 half = _mm256_set1_ps(0.5f), kv = _mm256_set1_ps(k);
+AVX2 static void block_scores_avx2(const float *S, const float *Ia, const float *Rc,
+                                   const vg_ana_qhot *q, float *out) {
+    const float *ca = S + (size_t)q->wa * NB, *cb = S + (size_t)q->wb * NB;
+    const float *cc = S + (size_t)q->wc * NB;
+    const float *ia = Ia + (size_t)q->sa * NB, *rc = Rc + (size_t)q->sc * NB;
+    const __m256 half = _mm256_set1_ps(0.5f), kv = _mm256_set1_ps(q->k);
     for (size_t j = 0; j < NB; j += 8) {
         __m256 b = _mm256_load_ps(cb + j), c = _mm256_load_ps(cc + j);
         __m256 t = _mm256_sub_ps(b, _mm256_load_ps(ca + j));
         _mm256_store_ps(out + j, _mm256_add_ps(t, c));
-        __m256 pb = _mm256_add_ps(_mm256_mul_ps(b, half), half);
-        __m256 pc = _mm256_add_ps(_mm256_mul_ps(c, half), half);
+        __m256 pb = _mm256_fmadd_ps(b, half, half), pc = _mm256_fmadd_ps(c, half, half);
         _mm256_store_ps(out + NB + j,
                         _mm256_mul_ps(_mm256_mul_ps(pb, pc), _mm256_load_ps(ia + j)));
         _mm256_store_ps(out + 2 * NB + j,
@@ -165,15 +187,35 @@ AVX static void block_scores_avx(const float *ca, const float *cb, const float *
     }
 }
 
-AVX static float row_max_avx(const float *x) {
-    __m256 m = _mm256_set1_ps(-INFINITY);
-    for (size_t j = 0; j < NB; j += 8) m = _mm256_max_ps(_mm256_load_ps(x + j), m);
-    return hmax_avx(m);
+AVX2 static float hmax_avx2(__m256 m) {
+    float l[8];
+    _mm256_storeu_ps(l, m);
+    float r = l[0];
+    for (int i = 1; i < 8; i++) r = MAXF(l[i], r);
+    return r;
 }
 
-static const vg_ana_kernels kernels_avx = {"avx",           scale_avx,     mul_denominator_avx,
-                                           inv_distance_avx, block_max_avx, block_scores_avx,
-                                           row_max_avx};
+AVX2 static float row_max_avx2(const float *x) {
+    __m256 m = _mm256_set1_ps(-INFINITY);
+    for (size_t j = 0; j < NB; j += 8) m = _mm256_max_ps(_mm256_load_ps(x + j), m);
+    return hmax_avx2(m);
+}
+
+AVX2 static size_t first_max_avx2(const float *x, float *max) {
+    float m = row_max_avx2(x);
+    *max = m;
+    if (m == -INFINITY) return first_max_c(x, max);
+    const __m256 mv = _mm256_set1_ps(m);
+    for (size_t j = 0; j < NB; j += 8) {
+        int eq = _mm256_movemask_ps(_mm256_cmp_ps(_mm256_load_ps(x + j), mv, _CMP_EQ_OQ));
+        if (eq) return j + (size_t)__builtin_ctz((unsigned)eq);
+    }
+    return VG_NOT_FOUND; /* not reached: m is one of the values */
+}
+
+static const vg_ana_kernels kernels_avx2 = {"avx2",          scale_avx2,     mul_denominator_avx2,
+                                            inv_distance_avx2, scan_avx2,    block_scores_avx2,
+                                            first_max_avx2,  row_max_avx2};
 
 /* ---- AVX-512F (16 lanes) --------------------------------------------- */
 
@@ -188,7 +230,7 @@ AVX512 static void mul_denominator_avx512(const float *s, float *out) {
     const __m512 half = _mm512_set1_ps(0.5f), eps = _mm512_set1_ps(VG_ANA_EPS),
                  one = _mm512_set1_ps(1.0f);
     for (size_t j = 0; j < NB; j += 16) {
-        __m512 p = _mm512_add_ps(_mm512_mul_ps(_mm512_load_ps(s + j), half), half);
+        __m512 p = _mm512_fmadd_ps(_mm512_load_ps(s + j), half, half);
         _mm512_store_ps(out + j, _mm512_div_ps(one, _mm512_add_ps(p, eps)));
     }
 }
@@ -204,42 +246,44 @@ AVX512 static void inv_distance_avx512(const float *s, float *out) {
     }
 }
 
-AVX512 static float hmax_avx512(__m512 m) {
-    float l[16];
-    _mm512_storeu_ps(l, m);
-    float r = l[0];
-    for (int i = 1; i < 16; i++) r = MAXF(l[i], r);
-    return r;
-}
-
-AVX512 static void block_max_avx512(const float *ca, const float *cb, const float *cc,
-                                    const float *ia, const float *rc, float k,
-                                    float out[VG_ANA_COMBINED]) {
-    const __m512 half = _mm512_set1_ps(0.5f), kv = _mm512_set1_ps(k);
-    __m512 m0 = _mm512_set1_ps(-INFINITY), m1 = m0, m2 = m0;
-    for (size_t j = 0; j < NB; j += 16) {
-        __m512 b = _mm512_load_ps(cb + j), c = _mm512_load_ps(cc + j);
-        __m512 t = _mm512_sub_ps(b, _mm512_load_ps(ca + j));
-        m0 = _mm512_max_ps(_mm512_add_ps(t, c), m0);
-        __m512 pb = _mm512_add_ps(_mm512_mul_ps(b, half), half);
-        __m512 pc = _mm512_add_ps(_mm512_mul_ps(c, half), half);
-        m1 = _mm512_max_ps(_mm512_mul_ps(_mm512_mul_ps(pb, pc), _mm512_load_ps(ia + j)), m1);
-        m2 = _mm512_max_ps(_mm512_mul_ps(_mm512_add_ps(t, kv), _mm512_load_ps(rc + j)), m2);
+AVX512 static size_t scan_avx512(const float *S, const float *Ia, const float *Rc,
+                                 const vg_ana_qhot *q, size_t n, const float *best,
+                                 uint32_t *hits) {
+    const __m512 half = _mm512_set1_ps(0.5f);
+    size_t h = 0;
+    for (size_t i = 0; i < n; i++) {
+        const float *ca = S + (size_t)q[i].wa * NB, *cb = S + (size_t)q[i].wb * NB;
+        const float *cc = S + (size_t)q[i].wc * NB;
+        const float *ia = Ia + (size_t)q[i].sa * NB, *rc = Rc + (size_t)q[i].sc * NB;
+        const __m512 kv = _mm512_set1_ps(q[i].k);
+        __m512 m0 = _mm512_set1_ps(-INFINITY), m1 = m0, m2 = m0;
+        for (size_t j = 0; j < NB; j += 16) {
+            __m512 b = _mm512_load_ps(cb + j), c = _mm512_load_ps(cc + j);
+            __m512 t = _mm512_sub_ps(b, _mm512_load_ps(ca + j));
+            m0 = _mm512_max_ps(_mm512_add_ps(t, c), m0);
+            __m512 pb = _mm512_fmadd_ps(b, half, half), pc = _mm512_fmadd_ps(c, half, half);
+            m1 = _mm512_max_ps(_mm512_mul_ps(_mm512_mul_ps(pb, pc), _mm512_load_ps(ia + j)), m1);
+            m2 = _mm512_max_ps(_mm512_mul_ps(_mm512_add_ps(t, kv), _mm512_load_ps(rc + j)), m2);
+        }
+        __mmask16 g = _mm512_cmp_ps_mask(m0, _mm512_set1_ps(best[3 * i]), _CMP_GT_OQ) |
+                      _mm512_cmp_ps_mask(m1, _mm512_set1_ps(best[3 * i + 1]), _CMP_GT_OQ) |
+                      _mm512_cmp_ps_mask(m2, _mm512_set1_ps(best[3 * i + 2]), _CMP_GT_OQ);
+        if (g) hits[h++] = (uint32_t)i;
     }
-    out[0] = hmax_avx512(m0);
-    out[1] = hmax_avx512(m1);
-    out[2] = hmax_avx512(m2);
+    return h;
 }
 
-AVX512 static void block_scores_avx512(const float *ca, const float *cb, const float *cc,
-                                       const float *ia, const float *rc, float k, float *out) {
-    const __m512 half = _mm512_set1_ps(0.5f), kv = _mm512_set1_ps(k);
+AVX512 static void block_scores_avx512(const float *S, const float *Ia, const float *Rc,
+                                       const vg_ana_qhot *q, float *out) {
+    const float *ca = S + (size_t)q->wa * NB, *cb = S + (size_t)q->wb * NB;
+    const float *cc = S + (size_t)q->wc * NB;
+    const float *ia = Ia + (size_t)q->sa * NB, *rc = Rc + (size_t)q->sc * NB;
+    const __m512 half = _mm512_set1_ps(0.5f), kv = _mm512_set1_ps(q->k);
     for (size_t j = 0; j < NB; j += 16) {
         __m512 b = _mm512_load_ps(cb + j), c = _mm512_load_ps(cc + j);
         __m512 t = _mm512_sub_ps(b, _mm512_load_ps(ca + j));
         _mm512_store_ps(out + j, _mm512_add_ps(t, c));
-        __m512 pb = _mm512_add_ps(_mm512_mul_ps(b, half), half);
-        __m512 pc = _mm512_add_ps(_mm512_mul_ps(c, half), half);
+        __m512 pb = _mm512_fmadd_ps(b, half, half), pc = _mm512_fmadd_ps(c, half, half);
         _mm512_store_ps(out + NB + j,
                         _mm512_mul_ps(_mm512_mul_ps(pb, pc), _mm512_load_ps(ia + j)));
         _mm512_store_ps(out + 2 * NB + j,
@@ -250,12 +294,28 @@ AVX512 static void block_scores_avx512(const float *ca, const float *cb, const f
 AVX512 static float row_max_avx512(const float *x) {
     __m512 m = _mm512_set1_ps(-INFINITY);
     for (size_t j = 0; j < NB; j += 16) m = _mm512_max_ps(_mm512_load_ps(x + j), m);
-    return hmax_avx512(m);
+    float l[16];
+    _mm512_storeu_ps(l, m);
+    float r = l[0];
+    for (int i = 1; i < 16; i++) r = MAXF(l[i], r);
+    return r;
+}
+
+AVX512 static size_t first_max_avx512(const float *x, float *max) {
+    float m = row_max_avx512(x);
+    *max = m;
+    if (m == -INFINITY) return first_max_c(x, max);
+    const __m512 mv = _mm512_set1_ps(m);
+    for (size_t j = 0; j < NB; j += 16) {
+        __mmask16 eq = _mm512_cmp_ps_mask(_mm512_load_ps(x + j), mv, _CMP_EQ_OQ);
+        if (eq) return j + (size_t)__builtin_ctz((unsigned)eq);
+    }
+    return VG_NOT_FOUND; /* not reached: m is one of the values */
 }
 
 static const vg_ana_kernels kernels_avx512 = {
-    "avx512f",        scale_avx512,     mul_denominator_avx512, inv_distance_avx512,
-    block_max_avx512, block_scores_avx512, row_max_avx512};
+    "avx512f",   scale_avx512,        mul_denominator_avx512, inv_distance_avx512,
+    scan_avx512, block_scores_avx512, first_max_avx512,       row_max_avx512};
 #endif
 
 _Static_assert(VG_ANA_BLOCK % 16 == 0, "a block is a whole number of 16-float vectors");
@@ -263,7 +323,9 @@ _Static_assert(VG_ANA_BLOCK % 16 == 0, "a block is a whole number of 16-float ve
 const vg_ana_kernels *vg_ana_kernels_get(const char *name) {
     if (strcmp(name, "scalar") == 0) return &kernels_c;
 #ifdef HAVE_X86
-    if (strcmp(name, "avx") == 0 && __builtin_cpu_supports("avx")) return &kernels_avx;
+    if (strcmp(name, "avx2") == 0 && __builtin_cpu_supports("avx2") &&
+        __builtin_cpu_supports("fma"))
+        return &kernels_avx2;
     if (strcmp(name, "avx512f") == 0 && __builtin_cpu_supports("avx512f")) return &kernels_avx512;
 #endif
     return NULL;
@@ -271,6 +333,6 @@ const vg_ana_kernels *vg_ana_kernels_get(const char *name) {
 
 const vg_ana_kernels *vg_ana_kernels_best(void) {
     const vg_ana_kernels *k = vg_ana_kernels_get("avx512f");
-    if (!k) k = vg_ana_kernels_get("avx");
+    if (!k) k = vg_ana_kernels_get("avx2");
     return k ? k : &kernels_c;
 }

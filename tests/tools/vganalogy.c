@@ -7,13 +7,14 @@
  *       One line per question: status, then the answer of 3cosadd,
  *       3cosmul, pairdir and only_b ("-" when none), tab-separated.
  *       -k keeps the question words as candidates; -K forces a kernel
- *       variant (scalar, avx, avx512f).
+ *       variant (scalar, avx2, avx512f).
  *   vganalogy wilson K N LEVEL
  *       The Wilson interval of K successes in N trials ("low high").
- *   vganalogy bench MATRIX ROWS DIMS SUITE REPS [-j THREADS]
+ *   vganalogy bench MATRIX ROWS DIMS SUITE REPS [-j THREADS] [-o FILE]
  *       MATRIX is ROWS x DIMS raw float32 (row i is the word "w<i>").
  *       Times REPS runs of the whole scorer and of its sgemm phase alone,
- *       and OpenBLAS's sgemm on a 4096-cube, and prints "key value" lines.
+ *       and OpenBLAS's sgemm on a 4096-cube, and prints "key value" lines;
+ *       -o FILE writes the predicted rows (4 per question, -1 for none).
  */
 #include <cblas.h>
 #include <stdio.h>
@@ -30,11 +31,17 @@ static void die(const vg_error *err) {
     exit(1);
 }
 
-static double now(void) {
+static double clock_s(clockid_t id) {
     struct timespec t;
-    clock_gettime(CLOCK_MONOTONIC, &t);
+    clock_gettime(id, &t);
     return (double)t.tv_sec + 1e-9 * (double)t.tv_nsec;
 }
+
+static double now(void) { return clock_s(CLOCK_MONOTONIC); }
+
+/* CPU time of the whole process (all threads): less sensitive than wall
+ * time to other work on a shared machine. */
+static double cpu(void) { return clock_s(CLOCK_PROCESS_CPUTIME_ID); }
 
 static int cmp_double(const void *a, const void *b) {
     double x = *(const double *)a, y = *(const double *)b;
@@ -46,10 +53,14 @@ static void summary(const char *key, double *t, int n) {
     printf("%s_median %.4f\n%s_min %.4f\n%s_max %.4f\n", key, t[n / 2], key, t[0], key, t[n - 1]);
 }
 
+static const char *dump_path; /* bench -o FILE */
+
 static void options(int argc, char **argv, int first, vg_score_options *so,
                     const vg_ana_kernels **kern) {
     for (int i = first; i < argc; i++) {
-        if (strcmp(argv[i], "-k") == 0) {
+        if (strcmp(argv[i], "-o") == 0 && i + 1 < argc) {
+            dump_path = argv[++i];
+        } else if (strcmp(argv[i], "-k") == 0) {
             so->keep_question_words = 1;
         } else if (strcmp(argv[i], "-n") == 0 && i + 1 < argc) {
             so->analogy_vocab = strtoull(argv[++i], NULL, 10);
@@ -134,20 +145,21 @@ static int cmd_bench(int argc, char **argv) {
     if (vg_suite_read_analogies(argv[5], NULL, NULL, VG_ANALOGY_AUTO, &s, &err) != VG_OK) die(&err);
 
     double *tf = calloc((size_t)reps, sizeof *tf), *tp = calloc((size_t)reps, sizeof *tp);
+    double *cf = calloc((size_t)reps, sizeof *cf), *cp = calloc((size_t)reps, sizeof *cp);
     vg_analogy_scores *sc = NULL;
     /* One warm-up run first: freshly allocated memory is slow to touch. */
     for (int r = -1; r < reps; r++) {
         vg_analogy_scores_free(sc);
-        double t0 = now();
+        double t0 = now(), c0 = cpu();
         if (vg_analogy_score_with(v, s, &so, kern, 0, &sc, &err) != VG_OK) die(&err);
-        if (r >= 0) tf[r] = now() - t0;
+        if (r >= 0) tf[r] = now() - t0, cf[r] = cpu() - c0;
     }
     for (int r = -1; r < reps; r++) {
         vg_analogy_scores *pp = NULL;
-        double t0 = now();
+        double t0 = now(), c0 = cpu();
         if (vg_analogy_score_with(v, s, &so, kern, VG_ANA_PRODUCT_ONLY, &pp, &err) != VG_OK)
             die(&err);
-        if (r >= 0) tp[r] = now() - t0;
+        if (r >= 0) tp[r] = now() - t0, cp[r] = cpu() - c0;
         vg_analogy_scores_free(pp);
     }
     /* Distinct question words, to count the product's flops. */
@@ -176,9 +188,26 @@ static int cmd_bench(int argc, char **argv) {
         for (size_t i = 0; i < sc->n_items; i++) c += sc->correct[mth][i];
         printf("correct_%s %zu\n", vg_method_name((vg_method)mth), c);
     }
+    if (dump_path) {
+        /* The predicted rows, one question a line, for the bench to compare
+         * with its numpy run. */
+        FILE *out = fopen(dump_path, "w");
+        if (!out) {
+            perror(dump_path);
+            return 1;
+        }
+        for (size_t i = 0; i < sc->n_items; i++)
+            for (int mth = 0; mth < VG_METHOD_COUNT; mth++)
+                fprintf(out, "%lld%c", sc->predicted[mth][i] == VG_NOT_FOUND ? -1LL
+                                       : (long long)sc->predicted[mth][i],
+                        mth + 1 < VG_METHOD_COUNT ? ' ' : '\n');
+        fclose(out);
+    }
     double flops = 2.0 * (double)n_words * (double)rows * (double)dims;
     summary("full", tf, reps);
     summary("product", tp, reps);
+    summary("full_cpu", cf, reps);
+    summary("product_cpu", cp, reps);
     printf("product_gflops %.1f\n", flops / tp[reps / 2] / 1e9);
 
     /* The machine's sgemm rate: a 4096-cube, with as many OpenBLAS threads
@@ -207,6 +236,8 @@ static int cmd_bench(int argc, char **argv) {
     free(C);
     free(tf);
     free(tp);
+    free(cf);
+    free(cp);
     vg_analogy_scores_free(sc);
     vg_suite_free(s);
     vg_vectors_free(v);
