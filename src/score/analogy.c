@@ -152,9 +152,10 @@ static void run_block(plan *p, worker *w, size_t blk) {
     size_t j0 = blk * NB, width = VG_MIN((size_t)NB, p->n_cand - j0);
     /* S[u][j] = qhat_u . x_(j0+j): row-major, M = words, N = candidates,
      * K = dims; W_block is read in place (ld) and transposed by sgemm. */
-    cblas_sgemm(CblasRowMajor, CblasNoTrans, CblasTrans, (int)p->n_words, (int)width,
-                (int)p->dims, 1.0f, p->qhat, (int)p->dims, p->data + j0 * p->ld, (int)p->ld,
-                0.0f, w->S, NB);
+    if (!(p->flags & VG_ANA_NO_PRODUCT))
+        cblas_sgemm(CblasRowMajor, CblasNoTrans, CblasTrans, (int)p->n_words, (int)width,
+                    (int)p->dims, 1.0f, p->qhat, (int)p->dims, p->data + j0 * p->ld,
+                    (int)p->ld, 0.0f, w->S, NB);
     if (p->flags & VG_ANA_PRODUCT_ONLY) return;
 
     memcpy(w->inv, p->inv_norm + j0, width * sizeof *w->inv);

@@ -90,12 +90,15 @@ VG_INTERNAL const vg_ana_kernels *vg_ana_kernels_get(const char *name);
 
 /* Flags of vg_analogy_score_with. */
 enum {
-    VG_ANA_PRODUCT_ONLY = 1 /* bench: run the sgemm blocks and nothing else */
+    VG_ANA_PRODUCT_ONLY = 1, /* bench: run the sgemm blocks and nothing else */
+    VG_ANA_NO_PRODUCT = 2    /* bench: everything but sgemm (the cosines stay
+                                0, so the answers are meaningless) */
 };
 
 /* vg_score_analogy with the kernels chosen by the caller (NULL: the best)
  * and flags. With VG_ANA_PRODUCT_ONLY the answers are not computed (every
- * predicted row is VG_NOT_FOUND). */
+ * predicted row is VG_NOT_FOUND); with VG_ANA_NO_PRODUCT they are
+ * meaningless. Both only time the phases apart. */
 VG_INTERNAL vg_status vg_analogy_score_with(const vg_vectors *v, const vg_suite *suite,
                                             const vg_score_options *opt,
                                             const vg_ana_kernels *kern, unsigned flags,

@@ -151,15 +151,26 @@ AVX2 static size_t scan_avx2(const float *S, const float *Ia, const float *Rc,
         const float *cc = S + (size_t)q[i].wc * NB;
         const float *ia = Ia + (size_t)q[i].sa * NB, *rc = Rc + (size_t)q[i].sc * NB;
         const __m256 kv = _mm256_set1_ps(q[i].k);
-        __m256 m0 = _mm256_set1_ps(-INFINITY), m1 = m0, m2 = m0;
-        for (size_t j = 0; j < NB; j += 8) {
+        /* Two sets of running maxima, so that the max chains overlap;
+         * max is exact, so splitting them changes no value. */
+        __m256 m0 = _mm256_set1_ps(-INFINITY), m1 = m0, m2 = m0, n0 = m0, n1 = m0, n2 = m0;
+        for (size_t j = 0; j < NB; j += 16) {
             __m256 b = _mm256_load_ps(cb + j), c = _mm256_load_ps(cc + j);
             __m256 t = _mm256_sub_ps(b, _mm256_load_ps(ca + j));
             m0 = _mm256_max_ps(_mm256_add_ps(t, c), m0);
             __m256 pb = _mm256_fmadd_ps(b, half, half), pc = _mm256_fmadd_ps(c, half, half);
             m1 = _mm256_max_ps(_mm256_mul_ps(_mm256_mul_ps(pb, pc), _mm256_load_ps(ia + j)), m1);
             m2 = _mm256_max_ps(_mm256_mul_ps(_mm256_add_ps(t, kv), _mm256_load_ps(rc + j)), m2);
+            b = _mm256_load_ps(cb + j + 8), c = _mm256_load_ps(cc + j + 8);
+            t = _mm256_sub_ps(b, _mm256_load_ps(ca + j + 8));
+            n0 = _mm256_max_ps(_mm256_add_ps(t, c), n0);
+            pb = _mm256_fmadd_ps(b, half, half), pc = _mm256_fmadd_ps(c, half, half);
+            n1 = _mm256_max_ps(_mm256_mul_ps(_mm256_mul_ps(pb, pc), _mm256_load_ps(ia + j + 8)), n1);
+            n2 = _mm256_max_ps(_mm256_mul_ps(_mm256_add_ps(t, kv), _mm256_load_ps(rc + j + 8)), n2);
         }
+        m0 = _mm256_max_ps(m0, n0);
+        m1 = _mm256_max_ps(m1, n1);
+        m2 = _mm256_max_ps(m2, n2);
         /* Any lane above the best so far: no horizontal maximum needed. */
         __m256 g = _mm256_or_ps(_mm256_cmp_ps(m0, _mm256_set1_ps(best[3 * i]), _CMP_GT_OQ),
                                 _mm256_cmp_ps(m1, _mm256_set1_ps(best[3 * i + 1]), _CMP_GT_OQ));
@@ -256,15 +267,26 @@ AVX512 static size_t scan_avx512(const float *S, const float *Ia, const float *R
         const float *cc = S + (size_t)q[i].wc * NB;
         const float *ia = Ia + (size_t)q[i].sa * NB, *rc = Rc + (size_t)q[i].sc * NB;
         const __m512 kv = _mm512_set1_ps(q[i].k);
-        __m512 m0 = _mm512_set1_ps(-INFINITY), m1 = m0, m2 = m0;
-        for (size_t j = 0; j < NB; j += 16) {
+        /* Two sets of running maxima, so that the max chains overlap;
+         * max is exact, so splitting them changes no value. */
+        __m512 m0 = _mm512_set1_ps(-INFINITY), m1 = m0, m2 = m0, n0 = m0, n1 = m0, n2 = m0;
+        for (size_t j = 0; j < NB; j += 32) {
             __m512 b = _mm512_load_ps(cb + j), c = _mm512_load_ps(cc + j);
             __m512 t = _mm512_sub_ps(b, _mm512_load_ps(ca + j));
             m0 = _mm512_max_ps(_mm512_add_ps(t, c), m0);
             __m512 pb = _mm512_fmadd_ps(b, half, half), pc = _mm512_fmadd_ps(c, half, half);
             m1 = _mm512_max_ps(_mm512_mul_ps(_mm512_mul_ps(pb, pc), _mm512_load_ps(ia + j)), m1);
             m2 = _mm512_max_ps(_mm512_mul_ps(_mm512_add_ps(t, kv), _mm512_load_ps(rc + j)), m2);
+            b = _mm512_load_ps(cb + j + 16), c = _mm512_load_ps(cc + j + 16);
+            t = _mm512_sub_ps(b, _mm512_load_ps(ca + j + 16));
+            n0 = _mm512_max_ps(_mm512_add_ps(t, c), n0);
+            pb = _mm512_fmadd_ps(b, half, half), pc = _mm512_fmadd_ps(c, half, half);
+            n1 = _mm512_max_ps(_mm512_mul_ps(_mm512_mul_ps(pb, pc), _mm512_load_ps(ia + j + 16)), n1);
+            n2 = _mm512_max_ps(_mm512_mul_ps(_mm512_add_ps(t, kv), _mm512_load_ps(rc + j + 16)), n2);
         }
+        m0 = _mm512_max_ps(m0, n0);
+        m1 = _mm512_max_ps(m1, n1);
+        m2 = _mm512_max_ps(m2, n2);
         __mmask16 g = _mm512_cmp_ps_mask(m0, _mm512_set1_ps(best[3 * i]), _CMP_GT_OQ) |
                       _mm512_cmp_ps_mask(m1, _mm512_set1_ps(best[3 * i + 1]), _CMP_GT_OQ) |
                       _mm512_cmp_ps_mask(m2, _mm512_set1_ps(best[3 * i + 2]), _CMP_GT_OQ);
@@ -318,7 +340,7 @@ static const vg_ana_kernels kernels_avx512 = {
     scan_avx512, block_scores_avx512, first_max_avx512,       row_max_avx512};
 #endif
 
-_Static_assert(VG_ANA_BLOCK % 16 == 0, "a block is a whole number of 16-float vectors");
+_Static_assert(VG_ANA_BLOCK % 32 == 0, "a block is a whole number of pairs of 16-float vectors");
 
 const vg_ana_kernels *vg_ana_kernels_get(const char *name) {
     if (strcmp(name, "scalar") == 0) return &kernels_c;

@@ -12,7 +12,8 @@
  *       The Wilson interval of K successes in N trials ("low high").
  *   vganalogy bench MATRIX ROWS DIMS SUITE REPS [-j THREADS] [-o FILE]
  *       MATRIX is ROWS x DIMS raw float32 (row i is the word "w<i>").
- *       Times REPS runs of the whole scorer and of its sgemm phase alone,
+ *       Times REPS runs of the whole scorer, of its sgemm phase alone and
+ *       of everything but sgemm (the combine phase, on zero cosines),
  *       and OpenBLAS's sgemm on a 4096-cube, and prints "key value" lines;
  *       -o FILE writes the predicted rows (4 per question, -1 for none).
  */
@@ -162,6 +163,15 @@ static int cmd_bench(int argc, char **argv) {
         if (r >= 0) tp[r] = now() - t0, cp[r] = cpu() - c0;
         vg_analogy_scores_free(pp);
     }
+    double *tc = calloc((size_t)reps, sizeof *tc);
+    for (int r = -1; r < reps; r++) {
+        vg_analogy_scores *pp = NULL;
+        double t0 = now();
+        if (vg_analogy_score_with(v, s, &so, kern, VG_ANA_NO_PRODUCT, &pp, &err) != VG_OK)
+            die(&err);
+        if (r >= 0) tc[r] = now() - t0;
+        vg_analogy_scores_free(pp);
+    }
     /* Distinct question words, to count the product's flops. */
     size_t n_used = sc->n_used;
     char **seen = calloc(3 * s->n_items + 1, sizeof *seen);
@@ -206,6 +216,7 @@ static int cmd_bench(int argc, char **argv) {
     double flops = 2.0 * (double)n_words * (double)rows * (double)dims;
     summary("full", tf, reps);
     summary("product", tp, reps);
+    summary("combine", tc, reps);
     summary("full_cpu", cf, reps);
     summary("product_cpu", cp, reps);
     printf("product_gflops %.1f\n", flops / tp[reps / 2] / 1e9);
@@ -238,6 +249,7 @@ static int cmd_bench(int argc, char **argv) {
     free(tp);
     free(cf);
     free(cp);
+    free(tc);
     vg_analogy_scores_free(sc);
     vg_suite_free(s);
     vg_vectors_free(v);
