@@ -25,7 +25,7 @@
 
 static float rows[400][D];
 static const char *words[400];
-static char fill_names[N_FILL][8];
+static char fill_names[N_FILL][16];
 static size_t n_rows;
 
 static size_t add_row(const char *w) {
