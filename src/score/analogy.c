@@ -406,7 +406,7 @@ static void merge(const plan *p, const vg_vectors *v, const vg_suite *suite, int
                 float x = p->w[t].best_v[VG_ANA_COMBINED * i + m];
                 size_t r = p->w[t].best_i[VG_ANA_COMBINED * i + m];
                 if (r == VG_NOT_FOUND) continue;
-                if (x > bv || (x == bv && r < bi)) {
+                if (vg_ana_beats(x, r, bv, bi)) {
                     bv = x;
                     bi = r;
                 }
@@ -424,7 +424,7 @@ static void merge(const plan *p, const vg_vectors *v, const vg_suite *suite, int
                 size_t r = ti[e];
                 if (r == VG_NOT_FOUND) break;
                 if (!p->keep && (r == q->ra || r == q->rb || r == q->rc)) continue;
-                if (tv[e] > pv || (tv[e] == pv && r < pick)) {
+                if (vg_ana_beats(tv[e], r, pv, pick)) {
                     pv = tv[e];
                     pick = r;
                 }

@@ -81,6 +81,12 @@ typedef struct vg_ana_kernels {
     float (*row_max)(const float *x);
 } vg_ana_kernels;
 
+/* The rule that merges the threads' bests: (v, row) beats (bv, brow) when
+ * v is higher, or equal with a lower row (ties to the lower row). */
+static inline int vg_ana_beats(float v, size_t row, float bv, size_t brow) {
+    return v > bv || (v == bv && row < brow);
+}
+
 /* The fastest kernels this CPU runs. */
 VG_INTERNAL const vg_ana_kernels *vg_ana_kernels_best(void);
 
