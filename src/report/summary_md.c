@@ -281,7 +281,9 @@ static void provenance_section(const vg_results *r, const vg_provenance *prov, F
         fprintf(fp, "`, %s%s, %zu rows x %zu dims", vg_layout_name(in->layout),
                 in->gzip ? " (gzip)" : "", in->rows_read, in->dims);
         if (in->rows != in->rows_read)
-            fprintf(fp, " (%zu rows kept: the words these suites need)", in->rows);
+            fprintf(fp, " (%zu rows kept: %s)", in->rows,
+                    any_analogy(r) ? "the analogy candidates and the words these suites need"
+                                   : "the words these suites need");
         fprintf(fp, ", sha256 %s\n", in->hashed ? in->sha256 : "not computed");
     }
     for (size_t k = 0; k < r->n_suites; k++) {
