@@ -456,6 +456,10 @@ vg_status vg_analogy_score_with(const vg_vectors *v, const vg_suite *suite,
         return vg_error_set(err, VG_ELIMIT, NULL, 0,
                             "%zu rows: more than the %d candidates sgemm can index", rows,
                             INT32_MAX);
+    /* Questions and their words are indexed with 32 bits in the scan. */
+    if (suite->n_items > (size_t)INT32_MAX)
+        return vg_error_set(err, VG_ELIMIT, NULL, 0, "suite %s: more than %d questions",
+                            suite->id, INT32_MAX);
     plan p;
     memset(&p, 0, sizeof p);
     p.data = vg_vectors_data(v);
