@@ -65,12 +65,14 @@ SUITES_O  = suites/suite.o suites/fields.o suites/pairs.o suites/analogies.o \
             suites/relation.o suites/split.o suites/groups.o suites/manifest.o \
             suites/datadir.o gen/manifest_csv.o
 FETCH_O   = fetch/download.o fetch/extract.o fetch/fetch.o
-SCORE_O   = score/similarity.o score/analogy.o
+SCORE_O   = score/similarity.o score/analogy.o score/analogy_kernel.o
 STATS_O   = stats/rank.o stats/correlation.o stats/kendall.o stats/interval.o \
             stats/resample.o stats/corrboot.o stats/agreement.o \
-            stats/paired_correlation.o stats/paired_counts.o
-EVAL_O    = eval/results.o eval/evaluate.o eval/similarity_rows.o eval/agreement.o
-REPORT_O  = report/csvout.o report/summary_md.o report/rundir.o report/intervals.o \
+            stats/paired_correlation.o stats/paired_counts.o stats/wilson.o
+EVAL_O    = eval/results.o eval/evaluate.o eval/similarity_rows.o eval/agreement.o \
+            eval/analogy_rows.o
+REPORT_O  = report/csvout.o report/summary_md.o report/summary_similarity.o \
+            report/summary_analogy.o report/text_table.o report/rundir.o report/intervals.o \
             report/items_csv.o report/latex.o report/run_json.o report/run_record.o
 CLI_O     = cli/main.o cli/util.o cli/signals.o cli/run_output.o cli/cmd_score.o \
             cli/cmd_rerun.o cli/cmd_suites.o cli/cmd_fetch.o
@@ -91,7 +93,8 @@ PC    = $(BUILD)/vecgauge.pc
 # ---- tests --------------------------------------------------------------
 UNIT_TESTS = $(patsubst tests/unit/%.c,$(BUILD)/tests/%,$(wildcard tests/unit/test_*.c))
 TEST_HELPERS = $(BUILD)/tests/inprocess_example $(BUILD)/tests/vgstat $(BUILD)/tests/vgpaired \
-               $(BUILD)/tests/vgbench
+               $(BUILD)/tests/vgbench \
+               $(BUILD)/tests/vganalogy
 TEST_CFLAGS := $(shell $(PKG_CONFIG) --cflags cmocka 2>/dev/null)
 TEST_LIBS   := $(shell $(PKG_CONFIG) --libs cmocka 2>/dev/null)
 
@@ -186,6 +189,10 @@ fuzz-bins: $(FUZZ_BINS)
 build/fuzz/fuzz_%: fuzz/fuzz_%.c fuzz/fuzz_input.h $(LIB)
 	$(CC) $(CPPFLAGS) $(CFLAGS) -Wno-missing-prototypes -fsanitize=fuzzer -o $@ $< $(LIB) \
 	    $(LDFLAGS) $(LDLIBS)
+
+$(BUILD)/tests/vganalogy: tests/tools/vganalogy.c src/score/analogy_impl.h $(LIB)
+	@mkdir -p $(@D)
+	$(CC) $(CPPFLAGS) -Isrc $(CFLAGS) -o $@ $< $(LIB) $(LDFLAGS) $(LDLIBS)
 
 $(GEN_DEMO): scripts/gen-demo.c
 	@mkdir -p $(@D)

@@ -82,16 +82,39 @@ VG_API const char *vg_method_name(vg_method m);
 /* Per-question results of one vector set on one analogy suite. */
 typedef struct vg_analogy_scores {
     size_t n_items;
-    size_t n_used;                         /* questions with all four words
-                                              among the candidates */
+    size_t n_used;                         /* questions with a, b, c and an
+                                              answer among the candidates */
     size_t n_candidates;                   /* candidate rows used */
     unsigned char *status;                 /* n_items vg_item_status */
     size_t *predicted[VG_METHOD_COUNT];    /* row index, VG_NOT_FOUND if unscored */
     unsigned char *correct[VG_METHOD_COUNT]; /* 1 if predicted is an accepted answer */
 } vg_analogy_scores;
 
-/* Answer every question of suite (task must be VG_TASK_ANALOGY) by every
- * method. Ownership and errors as for vg_score_similarity. */
+/* Answer every question a : b :: c : ? of suite (task must be
+ * VG_TASK_ANALOGY) by every method, over the candidates: the first
+ * opt->analogy_vocab rows of v (every row when 0 or when v has fewer),
+ * less the rows whose vector is zero.
+ *   3CosAdd  argmax cos(x,b) - cos(x,a) + cos(x,c)       (Mikolov et al. 2013)
+ *   3CosMul  argmax cos'(x,b) cos'(x,c) / (cos'(x,a) + 0.001),
+ *            cos' = (cos + 1) / 2                          (Levy and Goldberg 2014)
+ *   PairDir  argmax cos(x - c, b - a), unit vectors       (Levy and Goldberg 2014)
+ *   only-b   argmax cos(x, b)                             (Linzen 2016)
+ * a, b and c are never an answer unless opt->keep_question_words (common
+ * practice); even then c is not an answer of PairDir (x - c = 0 has no
+ * direction). Ties go to the lower row. A question is scored only when a,
+ * b, c and at least one accepted answer are candidates (status
+ * VG_ITEM_MISSING_WORD otherwise, VG_ITEM_ZERO_VECTOR when one of them has
+ * a zero vector); with opt->fold_case a word not found is looked up
+ * case-folded. correct[m][i] is 1 when the answer is any accepted answer.
+ * The answers do not depend on opt->threads.
+ *
+ * Work is one sgemm per block of candidates, memory a few MiB per thread
+ * (proportional to the distinct question words, not to the vocabulary).
+ * While it runs, OpenBLAS is set to one thread per call
+ * (openblas_set_num_threads(1), a process-wide setting restored on
+ * return): do not run other OpenBLAS work in parallel threads meanwhile.
+ * Ownership and errors as for vg_score_similarity; VG_ELIMIT when v has
+ * more than INT32_MAX rows. */
 VG_API vg_status vg_score_analogy(const vg_vectors *v, const vg_suite *suite,
                                   const vg_score_options *opt,
                                   vg_analogy_scores **out, vg_error *err);

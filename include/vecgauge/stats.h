@@ -188,6 +188,12 @@ VG_API vg_status vg_stats_agreement_loo(const double *const *ratings,
                                         const size_t *counts, size_t n,
                                         vg_agreement *out, vg_error *err);
 
+/* The Wilson score interval (Wilson 1927) for k successes in n trials at
+ * confidence level (e.g. 0.95) into [*low, *high]. The bounds are exact 0
+ * when k == 0 and exact 1 when k == n (the formula gives them up to
+ * rounding). Both are NaN when n == 0, k > n or level is not in (0, 1). */
+VG_API void vg_stats_wilson(size_t k, size_t n, double level, double *low, double *high);
+
 #ifdef __cplusplus
 }
 #endif

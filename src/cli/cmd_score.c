@@ -36,9 +36,12 @@ static const char score_help[] =
     "Scoring:\n"
     "      --fold-case        retry missing words Unicode case-folded\n"
     "      --seed N           random seed for resampling (default %u)\n"
-    "      --bootstrap N      bootstrap replicates over the pairs (default %u; 0: none)\n"
+    "      --bootstrap N      bootstrap replicates over the items (default %u; 0: none)\n"
     "      --ci LEVEL         confidence level of every interval, 0 < LEVEL < 1\n"
     "                         (default %g)\n"
+    "      --analogy-vocab N  analogy candidates: the first N rows of each set\n"
+    "                         (default %u; 0: every row)\n"
+    "      --keep-question-words  let a, b and c of a question be its answer\n"
     "  -j, --threads N        threads (default: one per CPU)\n"
     "\n"
     "  -h, --help             show this help and exit\n"
@@ -68,7 +71,8 @@ typedef struct score_args {
     char data_used[VG_ERROR_PATH_MAX]; /* the data directory read, "" if none */
 } score_args;
 
-enum { OPT_FOLD = 256, OPT_SEED, OPT_BOOT, OPT_DATA, OPT_MANIFEST, OPT_CI };
+enum { OPT_FOLD = 256, OPT_SEED, OPT_BOOT, OPT_DATA, OPT_MANIFEST, OPT_CI, OPT_ANALOGY_VOCAB,
+       OPT_KEEP_QWORDS };
 
 static const struct option long_opts[] = {
     {"suite", required_argument, NULL, 's'},
@@ -81,6 +85,8 @@ static const struct option long_opts[] = {
     {"seed", required_argument, NULL, OPT_SEED},
     {"bootstrap", required_argument, NULL, OPT_BOOT},
     {"ci", required_argument, NULL, OPT_CI},
+    {"analogy-vocab", required_argument, NULL, OPT_ANALOGY_VOCAB},
+    {"keep-question-words", no_argument, NULL, OPT_KEEP_QWORDS},
     {"threads", required_argument, NULL, 'j'},
     {"help", no_argument, NULL, 'h'},
     {NULL, 0, NULL, 0}};
@@ -88,31 +94,21 @@ static const struct option long_opts[] = {
 /* Every word of the suites (pairs' words; questions' a, b, c and every
  * answer): with the first analogy candidates, the only rows a run needs
  * to keep. Borrowed pointers into the suites. */
+/* Every distinct word of the similarity suites: the rows the loader must
+ * keep beyond the analogy candidates. Analogy words need no entry: a
+ * question counts only when its words are among the first analogy_vocab
+ * rows, which are kept whole. Borrowed pointers into the suites. */
 static const char **suite_words(vg_suite *const *suites, size_t n, size_t *count) {
     size_t total = 0;
-    for (size_t k = 0; k < n; k++) {
-        if (suites[k]->task == VG_TASK_SIMILARITY) {
-            total += 2 * suites[k]->n_items;
-        } else {
-            for (size_t i = 0; i < suites[k]->n_items; i++)
-                total += 3 + suites[k]->questions[i].n_answers;
-        }
-    }
+    for (size_t k = 0; k < n; k++)
+        if (suites[k]->task == VG_TASK_SIMILARITY) total += 2 * suites[k]->n_items;
     const char **w = calloc(total ? total : 1, sizeof *w);
     if (!w) return NULL;
     size_t m = 0;
     for (size_t k = 0; k < n; k++)
-        for (size_t i = 0; i < suites[k]->n_items; i++) {
-            if (suites[k]->task == VG_TASK_SIMILARITY) {
-                w[m++] = suites[k]->pairs[i].w1;
-                w[m++] = suites[k]->pairs[i].w2;
-            } else {
-                const vg_question *q = &suites[k]->questions[i];
-                w[m++] = q->a;
-                w[m++] = q->b;
-                w[m++] = q->c;
-                for (size_t j = 0; j < q->n_answers; j++) w[m++] = q->answers[j];
-            }
+        for (size_t i = 0; suites[k]->task == VG_TASK_SIMILARITY && i < suites[k]->n_items; i++) {
+            w[m++] = suites[k]->pairs[i].w1;
+            w[m++] = suites[k]->pairs[i].w2;
         }
     *count = m;
     return w;
@@ -135,6 +131,12 @@ static size_t score_settings(score_args *a, vg_setting *st, char bufs[][32]) {
     st[n] = (vg_setting){"threads", bufs[n], VG_SETTING_INTEGER};
     n++;
     st[n] = (vg_setting){"fold-case", a->eval.score.fold_case ? "1" : "0", VG_SETTING_BOOL};
+    n++;
+    snprintf(bufs[n], 32, "%zu", a->eval.score.analogy_vocab);
+    st[n] = (vg_setting){"analogy-vocab", bufs[n], VG_SETTING_INTEGER};
+    n++;
+    st[n] = (vg_setting){"keep-question-words", a->eval.score.keep_question_words ? "1" : "0",
+                         VG_SETTING_BOOL};
     n++;
     /* The data directory actually read (from --data, $VECGAUGE_DATA or the
      * XDG default), so that a rerun elsewhere reads the same one. */
@@ -284,6 +286,16 @@ int vg_cmd_score(int argc, char **argv) {
             break;
         case OPT_DATA: a.data = optarg; break;
         case OPT_MANIFEST: a.manifest = optarg; break;
+        case OPT_KEEP_QWORDS: a.eval.score.keep_question_words = 1; break;
+        case OPT_ANALOGY_VOCAB:
+            if (vg_cli_parse_u64(optarg, 0, SIZE_MAX, &u) != 0) {
+                rc = vg_cli_usage_error("score",
+                                        "--analogy-vocab needs a non-negative integer, got '%s'",
+                                        optarg);
+                goto done;
+            }
+            a.eval.score.analogy_vocab = (size_t)u;
+            break;
         case 'o': a.out = optarg; break;
         case OPT_FOLD: a.eval.score.fold_case = 1; break;
         case OPT_SEED:
@@ -320,7 +332,7 @@ int vg_cmd_score(int argc, char **argv) {
             break;
         case 'h':
             printf(score_help, (unsigned)VG_DEFAULT_SEED, (unsigned)VG_DEFAULT_BOOTSTRAP,
-                   VG_DEFAULT_CI);
+                   VG_DEFAULT_CI, (unsigned)VG_DEFAULT_ANALOGY_VOCAB);
             rc = VG_EXIT_OK;
             goto done;
         case ':':

@@ -24,4 +24,13 @@ VG_INTERNAL vg_status vg_eval_similarity_rows(vg_results *r, size_t *cap, size_t
  * has no individual ratings). */
 VG_INTERNAL vg_status vg_eval_agreement(vg_results *r, vg_error *err);
 
+/* The rows of one analogy block (set, suite): per subset (the whole suite,
+ * each section when there are several, each group), per method, accuracy
+ * on the covered questions and on all questions (uncovered ones wrong),
+ * each with its Wilson interval and, when opt->bootstrap > 0, a bootstrap
+ * percentile interval. */
+VG_INTERNAL vg_status vg_eval_analogy_rows(vg_results *r, size_t *cap, size_t set,
+                                           size_t suite, const vg_eval_options *opt,
+                                           vg_error *err);
+
 #endif /* VG_EVAL_IMPL_H */

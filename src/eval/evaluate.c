@@ -69,6 +69,7 @@ vg_status vg_evaluate(const vg_vector_set *sets, size_t n_sets, const vg_suite *
                 if (st == VG_OK) st = vg_eval_similarity_rows(r, &cap, i, k, opt, err);
             } else {
                 st = vg_score_analogy(sets[i].vectors, suites[k], &opt->score, &b->ana, err);
+                if (st == VG_OK) st = vg_eval_analogy_rows(r, &cap, i, k, opt, err);
             }
             if (st != VG_OK)
                 vg_error_prefix(err, "vector set %s, suite %s: ", r->labels[i], suites[k]->id);

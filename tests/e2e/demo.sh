@@ -14,7 +14,8 @@ ok "gen-demo generates the Tidewater data"
 check "gen-demo is deterministic" diff -r "$work/build/demo" "$work/build/demo2"
 
 ( cd "$work" && SOURCE_DATE_EPOCH=1796083200 "$VG_BIN" score \
-    --pairs build/demo/tidewater-pairs.tsv --out results/example-demo \
+    --pairs build/demo/tidewater-pairs.tsv --analogies build/demo/tidewater-analogies.txt \
+    --out results/example-demo \
     tide-full=build/demo/tide-full.txt tide-half=build/demo/tide-half.txt \
     tide-quick=build/demo/tide-quick.txt ) > "$TMP/out" 2> "$TMP/err"
 check "the demo command succeeds" test -f "$work/results/example-demo/scores.csv"
@@ -51,4 +52,24 @@ print("%.3f" % (min(v["tide-full"], v["tide-half"]) - v["tide-quick"]))
 PYEOF
 check "tide-quick trails both other candidates by more than 0.03 in rho ($(cat "$TMP/gap"))" \
     "$PY" -c "import sys; sys.exit(not float('$(cat "$TMP/gap")') > 0.03)"
+
+# And on analogies (demo-3): tide-quick's 3CosAdd accuracy on all
+# questions is far below both others, while tide-full and tide-half are
+# within each other's Wilson interval (a noise-level difference).
+"$PY" - "$work/results/example-demo/scores.csv" > "$TMP/agap" <<'PYEOF'
+import csv, sys
+rows = {r["vectors"]: r for r in csv.DictReader(open(sys.argv[1]))
+        if r["metric"] == "3cosadd_all" and r["subset"] == ""}
+v = {k: float(r["value"]) for k, r in rows.items()}
+gap = min(v["tide-full"], v["tide-half"]) - v["tide-quick"]
+f, h = rows["tide-full"], rows["tide-half"]
+close = float(f["ci_low"]) <= v["tide-half"] <= float(f["ci_high"]) and \
+        float(h["ci_low"]) <= v["tide-full"] <= float(h["ci_high"])
+print("%.3f %d" % (gap, close))
+PYEOF
+read -r agap aclose < "$TMP/agap"
+check "tide-quick trails both other candidates by more than 0.2 in 3CosAdd accuracy ($agap)" \
+    "$PY" -c "import sys; sys.exit(not float('$agap') > 0.2)"
+check "tide-full and tide-half lie within each other's Wilson interval on analogies" \
+    test "$aclose" = 1
 done_testing
