@@ -91,7 +91,9 @@ VG_API vg_status vg_report_summary_md(const vg_results *r, const vg_provenance *
 VG_API vg_status vg_report_text_table(const vg_results *r, FILE *fp, vg_error *err);
 
 /* Write the distinct missing words of every set on every suite as CSV
- * with the columns vectors,suite,word (missing.csv in a run directory). */
+ * with the columns vectors,suite,word,reason (missing.csv in a run
+ * directory); reason is "not in the vector set" or, for analogy words
+ * present past the candidate rows, "not among the candidate rows". */
 VG_API vg_status vg_report_missing_words(const vg_results *r, FILE *fp,
                                          const char *path, vg_error *err);
 

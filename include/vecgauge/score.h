@@ -88,6 +88,9 @@ typedef struct vg_analogy_scores {
     unsigned char *status;                 /* n_items vg_item_status */
     size_t *predicted[VG_METHOD_COUNT];    /* row index, VG_NOT_FOUND if unscored */
     unsigned char *correct[VG_METHOD_COUNT]; /* 1 if predicted is an accepted answer */
+    char **missing_words;                  /* distinct words not among the
+                                              candidates, in suite order */
+    size_t n_missing_words;
 } vg_analogy_scores;
 
 /* Answer every question a : b :: c : ? of suite (task must be

@@ -63,19 +63,35 @@ vg_status vg_report_scores_csv(const vg_results *r, FILE *fp, const char *path, 
     return VG_OK;
 }
 
+/* One line of missing.csv. */
+static void missing_line(FILE *fp, const char *set, const char *suite, const char *word,
+                         const char *reason) {
+    vg_csv_field(fp, set, ',');
+    vg_csv_field(fp, suite, ',');
+    vg_csv_field(fp, word, ',');
+    vg_csv_field(fp, reason, '\n');
+}
+
 vg_status vg_report_missing_words(const vg_results *r, FILE *fp, const char *path,
                                   vg_error *err) {
-    fputs("vectors,suite,word\n", fp);
+    fputs("vectors,suite,word,reason\n", fp);
     for (size_t i = 0; i < r->n_sets; i++) {
         for (size_t k = 0; k < r->n_suites; k++) {
-            const vg_similarity_scores *sc = r->blocks[i * r->n_suites + k].sim;
-            if (!sc) continue;
-            for (size_t w = 0; w < sc->n_missing_words; w++)
-            {
-                vg_csv_field(fp, r->labels[i], ',');
-                vg_csv_field(fp, r->suites[k]->id, ',');
-                vg_csv_field(fp, sc->missing_words[w], '\n');
-            }
+            const vg_item_block *b = &r->blocks[i * r->n_suites + k];
+            if (b->sim)
+                for (size_t w = 0; w < b->sim->n_missing_words; w++)
+                    missing_line(fp, r->labels[i], r->suites[k]->id, b->sim->missing_words[w],
+                                 "not in the vector set");
+            if (b->ana)
+                for (size_t w = 0; w < b->ana->n_missing_words; w++) {
+                    /* A word can be in the set but past the candidate rows
+                     * (--analogy-vocab): say which, it changes the remedy. */
+                    const char *word = b->ana->missing_words[w];
+                    int present = r->vectors && r->vectors[i] &&
+                                  vg_vectors_find(r->vectors[i], word, strlen(word)) != VG_NOT_FOUND;
+                    missing_line(fp, r->labels[i], r->suites[k]->id, word,
+                                 present ? "not among the candidate rows" : "not in the vector set");
+                }
         }
     }
     if (ferror(fp)) return vg_error_set(err, VG_EIO, path, 0, "write failed");

@@ -31,6 +31,7 @@
 #include "../common/alloc.h"
 #include "../common/threads.h"
 #include "analogy_impl.h"
+#include "missing.h"
 
 #define NB VG_ANA_BLOCK
 /* only-b keeps the best rows of b: a, b and c may take three of them. */
@@ -462,6 +463,7 @@ vg_status vg_analogy_score_with(const vg_vectors *v, const vg_suite *suite,
                             suite->id, INT32_MAX);
     plan p;
     memset(&p, 0, sizeof p);
+    vg_missing_list missing = {0};
     p.data = vg_vectors_data(v);
     p.ld = vg_vectors_ld(v);
     p.dims = vg_vectors_dims(v);
@@ -495,6 +497,14 @@ vg_status vg_analogy_score_with(const vg_vectors *v, const vg_suite *suite,
         }
         if (fa == WORD_MISSING || fb == WORD_MISSING || fc == WORD_MISSING || fd == WORD_MISSING) {
             s->status[i] = VG_ITEM_MISSING_WORD;
+            /* The words at fault, for missing.csv: a, b, c, and the
+             * accepted answers when none of them is a candidate. */
+            int bad = (fa == WORD_MISSING && vg_missing_add(&missing, qq->a) != 0) ||
+                      (fb == WORD_MISSING && vg_missing_add(&missing, qq->b) != 0) ||
+                      (fc == WORD_MISSING && vg_missing_add(&missing, qq->c) != 0);
+            for (size_t a = 0; !bad && fd == WORD_MISSING && a < qq->n_answers; a++)
+                bad = vg_missing_add(&missing, qq->answers[a]) != 0;
+            if (bad) goto oom;
             continue;
         }
         if (fa == WORD_ZERO || fb == WORD_ZERO || fc == WORD_ZERO || fd == WORD_ZERO) {
@@ -530,9 +540,11 @@ vg_status vg_analogy_score_with(const vg_vectors *v, const vg_suite *suite,
     if (!(flags & VG_ANA_PRODUCT_ONLY)) merge(&p, v, suite, opt->fold_case, s);
 finish:
     plan_free(&p);
+    vg_missing_take(&missing, &s->missing_words, &s->n_missing_words);
     *out = s;
     return VG_OK;
 oom:
+    vg_missing_free(&missing);
     plan_free(&p);
     vg_analogy_scores_free(s);
     return vg_error_set(err, VG_ENOMEM, NULL, 0, "out of memory scoring suite %s", suite->id);
@@ -550,5 +562,6 @@ void vg_analogy_scores_free(vg_analogy_scores *s) {
         vg_free(s->predicted[m]);
         vg_free(s->correct[m]);
     }
+    vg_missing_words_free(s->missing_words, s->n_missing_words);
     vg_free(s);
 }

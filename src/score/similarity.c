@@ -6,6 +6,7 @@
 
 #include "../common/alloc.h"
 #include "../common/strmap.h"
+#include "missing.h"
 #include "vecgauge/score.h"
 
 void vg_score_options_init(vg_score_options *opt) {
@@ -49,19 +50,6 @@ static size_t lookup(const vg_vectors *v, const char *w, int fold, int *folded_u
     return r;
 }
 
-static int add_missing(vg_similarity_scores *s, vg_strmap *seen, size_t *cap, const char *w) {
-    int ins = vg_strmap_put(seen, w, strlen(w), 0, NULL);
-    if (ins < 0) return -1;
-    if (ins == 0) return 0;
-    if (vg_grow((void **)&s->missing_words, cap, s->n_missing_words + 1,
-                sizeof *s->missing_words) != 0)
-        return -1;
-    char *d = vg_strdup(w);
-    if (!d) return -1;
-    s->missing_words[s->n_missing_words++] = d;
-    return 0;
-}
-
 vg_status vg_score_similarity(const vg_vectors *v, const vg_suite *suite,
                               const vg_score_options *opt, vg_similarity_scores **out,
                               vg_error *err) {
@@ -76,8 +64,7 @@ vg_status vg_score_similarity(const vg_vectors *v, const vg_suite *suite,
     }
     size_t n = suite->n_items;
     vg_similarity_scores *s = vg_calloc(1, sizeof *s);
-    vg_strmap seen = VG_STRMAP_INIT;
-    size_t cap = 0;
+    vg_missing_list missing = {0};
     if (!s) return vg_error_set(err, VG_ENOMEM, NULL, 0, "out of memory");
     s->n_items = n;
     s->cosine = vg_calloc(n, sizeof *s->cosine);
@@ -93,8 +80,8 @@ vg_status vg_score_similarity(const vg_vectors *v, const vg_suite *suite,
         if (r1 == VG_NOT_FOUND || r2 == VG_NOT_FOUND) {
             s->status[i] = VG_ITEM_MISSING_WORD;
             s->n_missing++;
-            if ((r1 == VG_NOT_FOUND && add_missing(s, &seen, &cap, p->w1) != 0) ||
-                (r2 == VG_NOT_FOUND && add_missing(s, &seen, &cap, p->w2) != 0))
+            if ((r1 == VG_NOT_FOUND && vg_missing_add(&missing, p->w1) != 0) ||
+                (r2 == VG_NOT_FOUND && vg_missing_add(&missing, p->w2) != 0))
                 goto oom;
             if (!opt->fold_case) {
                 /* Would folding have found both words? Tell the user how
@@ -115,19 +102,18 @@ vg_status vg_score_similarity(const vg_vectors *v, const vg_suite *suite,
         s->cosine[i] = cosine_rows(v, r1, r2);
         s->n_used++;
     }
-    vg_strmap_free(&seen);
+    vg_missing_take(&missing, &s->missing_words, &s->n_missing_words);
     *out = s;
     return VG_OK;
 oom:
-    vg_strmap_free(&seen);
+    vg_missing_free(&missing);
     vg_similarity_scores_free(s);
     return vg_error_set(err, VG_ENOMEM, NULL, 0, "out of memory scoring suite %s", suite->id);
 }
 
 void vg_similarity_scores_free(vg_similarity_scores *s) {
     if (!s) return;
-    for (size_t i = 0; i < s->n_missing_words; i++) vg_free(s->missing_words[i]);
-    vg_free(s->missing_words);
+    vg_missing_words_free(s->missing_words, s->n_missing_words);
     vg_free(s->cosine);
     vg_free(s->status);
     vg_free(s);
