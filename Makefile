@@ -51,8 +51,10 @@ $(shell mkdir -p $(BUILD)/gen; \
 # ---- the library, by the stage the data flows through --------------------
 COMMON_O  = common/error.o common/alloc.o common/arena.o common/strmap.o \
             common/text.o common/lines.o common/sha256.o common/threads.o \
-            common/numfmt.o common/version.o
-VECTORS_O = vectors/vectors.o vectors/load.o vectors/text.o
+            common/numfmt.o common/version.o common/bigbuf.o
+VECTORS_O = vectors/vectors.o vectors/load.o vectors/detect.o vectors/source.o \
+            vectors/gzip.o vectors/fastfloat.o vectors/text.o vectors/binary.o \
+            vectors/npy.o vectors/vocab.o
 SUITES_O  = suites/suite.o suites/fields.o suites/pairs.o suites/analogies.o
 SCORE_O   = score/similarity.o score/analogy.o
 STATS_O   = stats/rank.o stats/correlation.o stats/resample.o

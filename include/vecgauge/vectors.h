@@ -91,6 +91,11 @@ typedef struct vg_vectors_info {
     char sha256[65];           /* lower-case hex, NUL-terminated */
     char vocab_path[VG_ERROR_PATH_MAX]; /* .npy only: the vocabulary file used */
     char vocab_sha256[65];     /* .npy only */
+    int crlf;                  /* text: some lines end in "\r\n" */
+    int bom;                   /* text: the file starts with a UTF-8 byte order mark */
+    int big_endian;            /* npy: the data are big-endian */
+    int fortran_order;         /* npy: the data are column-major */
+    int source_float64;        /* npy: the data are float64, rounded to float32 */
 } vg_vectors_info;
 
 typedef struct vg_vectors vg_vectors;
@@ -101,6 +106,15 @@ typedef struct vg_vectors vg_vectors;
  * opt may be NULL for the defaults. */
 VG_API vg_status vg_vectors_load(const char *path, const vg_load_options *opt,
                                  vg_vectors **out, vg_error *err);
+
+/* As vg_vectors_load, on size bytes in memory (any layout, gzip or not;
+ * the bytes are copied once). name stands for the path in error messages
+ * and in the info; an .npy buffer takes its vocabulary from
+ * opt->vocab_path, or from beside name. Also the entry point for fuzzing
+ * the readers. */
+VG_API vg_status vg_vectors_load_buffer(const void *data, size_t size, const char *name,
+                                        const vg_load_options *opt, vg_vectors **out,
+                                        vg_error *err);
 
 /* Build a vector set from memory, for programs that evaluate in-process.
  * words[i] is the NUL-terminated word of row i; data is rows x dims

@@ -37,7 +37,10 @@ static int rehash(vg_strmap *m, size_t ncap) {
     for (size_t i = 0; i < m->cap; i++) {
         vg_strmap_slot *o = &m->slots[i];
         if (!o->key) continue;
-        size_t j = vg_hash_bytes(o->key, o->len) & (ncap - 1);
+        /* hash32 holds the hash's low 32 bits, all the index needs below
+         * 2^32 slots: no key is hashed again. */
+        uint64_t h = ncap <= ((uint64_t)1 << 32) ? o->hash32 : vg_hash_bytes(o->key, o->len);
+        size_t j = h & (ncap - 1);
         while (ns[j].key) j = (j + 1) & (ncap - 1);
         ns[j] = *o;
     }
@@ -57,12 +60,16 @@ int vg_strmap_reserve(vg_strmap *m, size_t n) {
 }
 
 int vg_strmap_put(vg_strmap *m, const char *key, size_t len, size_t value, size_t *existing) {
+    return vg_strmap_put_hashed(m, key, len, vg_hash_bytes(key, len), value, existing);
+}
+
+int vg_strmap_put_hashed(vg_strmap *m, const char *key, size_t len, uint64_t h, size_t value,
+                         size_t *existing) {
     if (len > UINT32_MAX) return -1;
     if ((m->count + 1) * 2 > m->cap) {
         size_t ncap = m->cap ? m->cap * 2 : 16;
         if (ncap < m->cap || rehash(m, ncap) != 0) return -1;
     }
-    uint64_t h = vg_hash_bytes(key, len);
     size_t j = h & (m->cap - 1);
     for (;;) {
         vg_strmap_slot *s = &m->slots[j];
@@ -84,7 +91,11 @@ int vg_strmap_put(vg_strmap *m, const char *key, size_t len, size_t value, size_
 
 size_t vg_strmap_get(const vg_strmap *m, const char *key, size_t len) {
     if (!m->cap) return (size_t)-1;
-    uint64_t h = vg_hash_bytes(key, len);
+    return vg_strmap_get_hashed(m, key, len, vg_hash_bytes(key, len));
+}
+
+size_t vg_strmap_get_hashed(const vg_strmap *m, const char *key, size_t len, uint64_t h) {
+    if (!m->cap) return (size_t)-1;
     size_t j = h & (m->cap - 1);
     for (;;) {
         const vg_strmap_slot *s = &m->slots[j];

@@ -44,6 +44,13 @@ VG_INTERNAL int vg_strmap_put(vg_strmap *m, const char *key, size_t len, size_t 
 /* Value of key, or (size_t)-1 if absent. */
 VG_INTERNAL size_t vg_strmap_get(const vg_strmap *m, const char *key, size_t len);
 
+/* As vg_strmap_put and vg_strmap_get with the key's vg_hash_bytes
+ * already computed (so that it can be computed on another thread). */
+VG_INTERNAL int vg_strmap_put_hashed(vg_strmap *m, const char *key, size_t len, uint64_t hash,
+                                     size_t value, size_t *existing);
+VG_INTERNAL size_t vg_strmap_get_hashed(const vg_strmap *m, const char *key, size_t len,
+                                        uint64_t hash);
+
 VG_INTERNAL void vg_strmap_free(vg_strmap *m);
 
 #endif /* VG_STRMAP_H */

@@ -1,0 +1,177 @@
+/* binary.c - the common binary layout: an ASCII "count dims" line, then
+ * per row the word's bytes, one space, dims little-endian float32 values
+ * and optionally a '\n'.
+ * Part of vecgauge; MIT licence, see LICENSE.
+ *
+ * Rows have no fixed size (the words differ), so they are read in order
+ * by one thread; the values are copied once from the mapped (or inflated)
+ * bytes into a row buffer, checked, and copied into the matrix. Errors
+ * name the row and its byte offset, the binary layout having no lines.
+ */
+#include <math.h>
+#include <string.h>
+
+#include "../common/alloc.h"
+#include "vectors_impl.h"
+
+/* Little-endian float32 bytes to host floats. */
+static void load_le32(float *dst, const char *src, size_t n) {
+#if defined(__BYTE_ORDER__) && __BYTE_ORDER__ == __ORDER_BIG_ENDIAN__
+    for (size_t j = 0; j < n; j++) {
+        uint32_t b;
+        memcpy(&b, src + 4 * j, 4);
+        b = __builtin_bswap32(b);
+        memcpy(&dst[j], &b, 4);
+    }
+#else
+    memcpy(dst, src, n * sizeof(float));
+#endif
+}
+
+/* 1 if the bytes [p, p + n) are all blank or line ends. */
+static int all_space(const char *p, size_t n) {
+    for (size_t i = 0; i < n; i++)
+        if (p[i] != '\n' && p[i] != '\r' && p[i] != ' ' && p[i] != '\t') return 0;
+    return 1;
+}
+
+vg_status vg_read_binary(vg_src *src, const vg_detect *d, const vg_load_options *opt,
+                         vg_vectors **out, vg_error *err) {
+    *out = NULL;
+    const char *path = vg_src_path(src);
+    size_t dims = d->dims;
+    size_t row_bytes = dims * sizeof(float);
+    uint64_t stream_max = vg_src_stored_bytes(src);
+    if (vg_src_gzip(src)) stream_max = stream_max > UINT64_MAX / 1032 ? UINT64_MAX : stream_max * 1032;
+    size_t bound = (size_t)VG_MIN(stream_max / (row_bytes + 2) + 1, (uint64_t)SIZE_MAX / 2);
+    vg_vectors *v = NULL;
+    vg_status st = vg_vecbuild_begin(dims, d->header_rows, bound, opt, &v, err);
+    if (st != VG_OK) {
+        if (err->path[0] == '\0') snprintf(err->path, sizeof err->path, "%s", path);
+        return st;
+    }
+    float *tmp = vg_aligned_alloc(64, row_bytes);
+    char *word = vg_malloc(VG_MAX_WORD + 1);
+    vg_seq q;
+    int seq_open = 0;
+    if (!tmp || !word) {
+        st = vg_error_set(err, VG_ENOMEM, path, 0, "out of memory");
+        goto done;
+    }
+    st = vg_seq_begin(&q, src, err);
+    if (st != VG_OK) goto done;
+    seq_open = 1;
+    size_t got;
+    if (!vg_seq_peek(&q, d->header_bytes, &got, err)) {
+        st = err->code;
+        goto done;
+    }
+    vg_seq_skip(&q, d->header_bytes, err);
+
+    uint64_t row = 0; /* rows seen, 1-based in messages */
+    int cut = 0;      /* the file ends inside a row */
+    for (;;) {
+        if (opt->max_words && v->info.rows_read + v->info.bad_rows >= opt->max_words) break;
+        uint64_t at = q.consumed;
+        const char *p = vg_seq_peek(&q, VG_MAX_WORD + 1, &got, err);
+        if (!p) {
+            st = err->code;
+            goto done;
+        }
+        if (got == 0) break;
+        row++;
+        const char *sp = memchr(p, ' ', got);
+        if (!sp) {
+            if (all_space(p, got) && got < VG_MAX_WORD + 1) break; /* trailing newlines */
+            if (got < VG_MAX_WORD + 1) {
+                cut = 1;
+                break;
+            }
+            st = vg_error_set(err, VG_EFORMAT, path, 0,
+                              "row %llu (byte %llu): no space after the word within %u bytes",
+                              (unsigned long long)row, (unsigned long long)at,
+                              (unsigned)VG_MAX_WORD);
+            goto done;
+        }
+        size_t wlen = (size_t)(sp - p);
+        if (wlen == 0) {
+            st = vg_error_set(err, VG_EFORMAT, path, 0, "row %llu (byte %llu): empty word",
+                              (unsigned long long)row, (unsigned long long)at);
+            goto done;
+        }
+        memcpy(word, p, wlen);
+        word[wlen] = '\0';
+        vg_seq_skip(&q, wlen + 1, err);
+        const char *vals = vg_seq_peek(&q, row_bytes, &got, err);
+        if (!vals) {
+            st = err->code;
+            goto done;
+        }
+        if (got < row_bytes) {
+            cut = 1;
+            vg_seq_skip(&q, got, err);
+            break;
+        }
+        load_le32(tmp, vals, dims);
+        vg_seq_skip(&q, row_bytes, err);
+        const char *nl = vg_seq_peek(&q, 1, &got, err);
+        if (!nl) {
+            st = err->code;
+            goto done;
+        }
+        if (got == 1 && *nl == '\n') vg_seq_skip(&q, 1, err);
+        if (!vg_all_finite(tmp, dims)) {
+            if (opt->skip_bad_rows) {
+                v->info.bad_rows++;
+                continue;
+            }
+            size_t j = 0;
+            while (j < dims && isfinite(tmp[j])) j++;
+            st = vg_error_set(err, VG_EVALUE, path, 0,
+                              "row %llu (byte %llu, word '%.*s'): value %zu is not finite",
+                              (unsigned long long)row, (unsigned long long)at, (int)VG_MIN(wlen, 40),
+                              word, j + 1);
+            goto done;
+        }
+        vg_rowkey k;
+        if (vg_rowkey_make(v, word, wlen, &k) != 0) {
+            st = vg_error_set(err, VG_ENOMEM, path, 0, "out of memory");
+            goto done;
+        }
+        float *dst;
+        st = vg_vecbuild_add(v, &k, vg_row_norm(tmp, dims), &dst, path, 0, err);
+        vg_rowkey_clear(&k);
+        if (st != VG_OK) goto done;
+        if (dst) memcpy(dst, tmp, row_bytes);
+    }
+    size_t present = v->info.rows_read + v->info.bad_rows;
+    int stopped = opt->max_words && present >= opt->max_words;
+    if (cut && !opt->allow_short) {
+        st = vg_error_set(err, VG_ETRUNCATED, path, 0,
+                          "the file ends inside row %llu, after %zu complete rows of the %zu the "
+                          "header promises (truncated download? --allow-short accepts it)",
+                          (unsigned long long)row, present, d->header_rows);
+        goto done;
+    }
+    if (!stopped && !opt->allow_short && present != d->header_rows) {
+        st = vg_error_set(err, VG_ETRUNCATED, path, 0,
+                          "header promises %zu rows but the file has %zu "
+                          "(truncated download? --allow-short accepts it)",
+                          d->header_rows, present);
+        goto done;
+    }
+    vg_seq_end(&q);
+    seq_open = 0;
+    st = vg_vecbuild_finish(v, err);
+
+done:
+    if (seq_open) vg_seq_end(&q);
+    vg_free(tmp);
+    vg_free(word);
+    if (st != VG_OK) {
+        vg_vectors_free(v);
+        return st;
+    }
+    *out = v;
+    return VG_OK;
+}
