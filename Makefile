@@ -60,7 +60,8 @@ SCORE_O   = score/similarity.o score/analogy.o
 STATS_O   = stats/rank.o stats/correlation.o stats/resample.o
 EVAL_O    = eval/results.o eval/evaluate.o eval/similarity_rows.o
 REPORT_O  = report/csvout.o report/summary_md.o report/rundir.o
-CLI_O     = cli/main.o cli/util.o cli/cmd_score.o
+CLI_O     = cli/main.o cli/util.o cli/cmd_score.o cli/cmd_inspect.o cli/loadopts.o \
+            cli/progress.o
 
 LIB_O = $(addprefix $(BUILD)/obj/,$(COMMON_O) $(VECTORS_O) $(SUITES_O) \
           $(SCORE_O) $(STATS_O) $(EVAL_O) $(REPORT_O))

@@ -29,6 +29,8 @@ static const char score_help[] =
     "      --bootstrap N      bootstrap replicates (default %u)\n"
     "  -j, --threads N        threads (default: one per CPU)\n"
     "\n"
+    "%s"
+    "\n"
     "  -h, --help             show this help and exit\n"
     "\n"
     "Writes scores.csv, summary.md and missing.csv into the run directory and\n"
@@ -39,6 +41,8 @@ typedef struct score_args {
     size_t n_pairs;
     const char *out;
     vg_eval_options eval;
+    vg_load_options load;
+    int progress;
 } score_args;
 
 enum { OPT_FOLD = 256, OPT_SEED, OPT_BOOT };
@@ -51,6 +55,7 @@ static const struct option long_opts[] = {
     {"bootstrap", required_argument, NULL, OPT_BOOT},
     {"threads", required_argument, NULL, 'j'},
     {"help", no_argument, NULL, 'h'},
+    VG_CLI_LOAD_LONG_OPTIONS,
     {NULL, 0, NULL, 0}};
 
 /* Every distinct word of the similarity suites: the only rows a
@@ -107,6 +112,8 @@ int vg_cmd_score(int argc, char **argv) {
     score_args a;
     memset(&a, 0, sizeof a);
     vg_eval_options_init(&a.eval);
+    vg_load_options_init(&a.load);
+    a.progress = 1;
     int rc = VG_EXIT_FAIL;
     a.pairs = calloc((size_t)argc, sizeof *a.pairs);
     if (!a.pairs) {
@@ -118,6 +125,9 @@ int vg_cmd_score(int argc, char **argv) {
     int c;
     uint64_t u;
     while ((c = getopt_long(argc, argv, ":p:o:j:h", long_opts, NULL)) != -1) {
+        int handled = vg_cli_load_option("score", c, optarg, &a.load, &a.progress, &rc);
+        if (handled < 0) goto done;
+        if (handled) continue;
         switch (c) {
         case 'p': a.pairs[a.n_pairs++] = optarg; break;
         case 'o': a.out = optarg; break;
@@ -145,7 +155,8 @@ int vg_cmd_score(int argc, char **argv) {
             a.eval.score.threads = (unsigned)u;
             break;
         case 'h':
-            printf(score_help, (unsigned)VG_DEFAULT_SEED, (unsigned)VG_DEFAULT_BOOTSTRAP);
+            printf(score_help, (unsigned)VG_DEFAULT_SEED, (unsigned)VG_DEFAULT_BOOTSTRAP,
+                   vg_cli_load_help);
             rc = VG_EXIT_OK;
             goto done;
         case ':':
@@ -207,13 +218,18 @@ int vg_cmd_score(int argc, char **argv) {
         goto cleanup;
     }
     for (int i = 0; i < n_sets; i++) {
-        vg_load_options lo;
-        vg_load_options_init(&lo);
+        vg_load_options lo = a.load;
         lo.threads = a.eval.score.threads;
         lo.fold_case = a.eval.score.fold_case;
         lo.keep_words = words;
         lo.n_keep_words = n_words;
-        if (vg_vectors_load(paths[i], &lo, &vecs[i], &err) != VG_OK) {
+        vg_cli_progress pr;
+        vg_cli_progress_begin(&pr, labels[i], a.progress);
+        lo.progress = vg_cli_progress_fn;
+        lo.progress_ctx = &pr;
+        vg_status lst = vg_vectors_load(paths[i], &lo, &vecs[i], &err);
+        vg_cli_progress_end(&pr);
+        if (lst != VG_OK) {
             vg_cli_error(&err);
             goto cleanup;
         }

@@ -16,6 +16,7 @@ static int cmd_help(int argc, char **argv);
 
 static const command commands[] = {
     {"score", vg_cmd_score, "score vector sets on suites and write a run directory"},
+    {"inspect", vg_cmd_inspect, "read vector files and report their layout, size and quirks"},
     {"help", cmd_help, "show help for vecgauge or for one command"},
 };
 #define N_COMMANDS (sizeof commands / sizeof commands[0])
