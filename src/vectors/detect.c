@@ -4,9 +4,11 @@
  * The rules, in order (each decision is recorded in words for inspect):
  *  - "\x93NUMPY" at the start is a NumPy array (the format's magic);
  *  - a first line of exactly two integers "count dims" is a header only
- *    if what follows it agrees: text rows of dims values (most of the
- *    sampled lines), or else binary rows (word, space, dims finite
- *    little-endian float32 values); when the lines after it hold one
+ *    if what follows it agrees: text rows of dims values (at least half
+ *    of the sampled lines), or else binary rows (word, space, dims
+ *    little-endian float32 values whose bytes are not all printable; a
+ *    NaN among them is the reader's error to report, not a reason to
+ *    guess another layout); when the lines after it hold one
  *    value each, the first line is itself a one-dimensional row;
  *  - anything else is text without a header, its dims the most common
  *    field count (less the word) of the first lines, so that a first row
@@ -106,7 +108,8 @@ static size_t sample_lines(const char *p, size_t n, int whole, size_t *counts, s
     return k;
 }
 
-/* Do the bytes at p look like rows of the binary layout? Checks up to
+/* Do the bytes at p look like rows of the binary layout (word without
+ * line breaks, a space, 4 * dims bytes that are not all text)? Checks up to
  * SAMPLE_BINARY_ROWS rows (fewer when the peek ends); at least one row
  * must be complete. */
 static int binary_rows_ok(const char *p, size_t n, size_t dims, size_t rows) {
@@ -131,13 +134,6 @@ static int binary_rows_ok(const char *p, size_t n, size_t dims, size_t rows) {
             printable += (c >= 0x20 && c < 0x7f) || c == '\t' || c == '\r' || c == '\n';
         }
         if (printable == dims * 4) return 0;
-        for (size_t j = 0; j < dims; j++) {
-            uint32_t b = (uint32_t)(unsigned char)p[i + 4 * j] |
-                         (uint32_t)(unsigned char)p[i + 4 * j + 1] << 8 |
-                         (uint32_t)(unsigned char)p[i + 4 * j + 2] << 16 |
-                         (uint32_t)(unsigned char)p[i + 4 * j + 3] << 24;
-            if ((b & 0x7f800000u) == 0x7f800000u) return 0;
-        }
         i += dims * 4;
         seen++;
     }
@@ -245,9 +241,9 @@ vg_status vg_detect_layout(const char *p, size_t n, int whole, vg_layout forced,
     size_t k = sample_lines(rest, rn, whole, counts, numeric, hdims);
     size_t text_match = 0, one_value = 0;
     for (size_t i = 0; i < k; i++) {
-        /* A row of the header's width, or a wider one whose last dims
-         * fields are numbers (a word holding spaces). */
-        if (counts[i] == hdims + 1 || (counts[i] > hdims + 1 && numeric[i] == hdims)) text_match++;
+        /* A word and dims numbers (or more fields before them: a word
+         * holding spaces). */
+        if (counts[i] >= hdims + 1 && numeric[i] == hdims) text_match++;
         if (counts[i] == 2) one_value++;
     }
     if (forced == VG_LAYOUT_TEXT_HEADER || (k == 0 && (whole || rn == 0)) ||

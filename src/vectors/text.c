@@ -234,11 +234,6 @@ static int row_slow(tslot *s, const char *line, size_t len, size_t dims, const c
             return ROW_BAD;
         }
     }
-    if (*wlen > VG_MAX_WORD) {
-        vg_error_set(e, VG_ELIMIT, path, 0, "word of %zu bytes exceeds the limit of %u", *wlen,
-                     (unsigned)VG_MAX_WORD);
-        return ROW_BAD;
-    }
     return ROW_OK;
 }
 
@@ -347,6 +342,19 @@ static void parse_chunk(tpipe *tp, tslot *s) {
                 p = next;
                 continue;
             }
+        }
+        if (wlen > VG_MAX_WORD) {
+            r->bad = 1;
+            r->line = lines;
+            if (!s->has_bad) {
+                vg_error_set(&s->bad_err, VG_ELIMIT, tp->path, 0,
+                             "word of %zu bytes exceeds the limit of %u", wlen,
+                             (unsigned)VG_MAX_WORD);
+                s->has_bad = 1;
+            }
+            s->n++;
+            p = next;
+            continue;
         }
         if (vg_rowkey_make(tp->v, word, wlen, &r->key) != 0) {
             s->fatal = VG_ENOMEM;
