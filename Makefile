@@ -54,7 +54,7 @@ COMMON_O  = common/error.o common/alloc.o common/arena.o common/strmap.o \
             common/numfmt.o common/version.o common/bigbuf.o
 VECTORS_O = vectors/vectors.o vectors/load.o vectors/detect.o vectors/source.o \
             vectors/gzip.o vectors/fastfloat.o vectors/text.o vectors/binary.o \
-            vectors/npy.o vectors/vocab.o
+            vectors/npy.o vectors/vocab.o vectors/batch.o
 SUITES_O  = suites/suite.o suites/fields.o suites/pairs.o suites/analogies.o
 SCORE_O   = score/similarity.o score/analogy.o
 STATS_O   = stats/rank.o stats/correlation.o stats/resample.o

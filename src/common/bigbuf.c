@@ -58,3 +58,13 @@ void vg_bigbuf_free(vg_bigbuf *b) {
     b->p = NULL;
     b->reserved = 0;
 }
+
+void *vg_bigbuf_alloc(size_t n) {
+    vg_bigbuf b = VG_BIGBUF_INIT;
+    if (vg_bigbuf_reserve(&b, n ? n : 1) != 0) return NULL;
+    return b.p;
+}
+
+void vg_bigbuf_release(void *p, size_t n) {
+    if (p) munmap(p, page_round(n ? n : 1));
+}

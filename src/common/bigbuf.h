@@ -36,4 +36,11 @@ VG_INTERNAL void vg_bigbuf_shrink(vg_bigbuf *b, size_t bytes);
 /* Unmap; *b is empty again. An empty buffer does nothing. */
 VG_INTERNAL void vg_bigbuf_free(vg_bigbuf *b);
 
+/* One fixed block of n bytes (zero-filled, page-aligned, huge pages
+ * advised when large), for tables that are reallocated whole; freed
+ * with vg_bigbuf_release(p, n), the same n. NULL when out of memory or
+ * the allocation hook says fail. */
+VG_INTERNAL void *vg_bigbuf_alloc(size_t n);
+VG_INTERNAL void vg_bigbuf_release(void *p, size_t n);
+
 #endif /* VG_BIGBUF_H */

@@ -6,6 +6,29 @@
 #include <string.h>
 
 #include "alloc.h"
+#include "bigbuf.h"
+
+/* Tables of a megabyte or more live in their own mapping, with huge
+ * pages: a vocabulary index of millions of words is touched at random,
+ * and with 4 KiB pages its first touch alone costs more than the inserts.
+ * The size alone says which allocator holds a table. */
+#define BIG_TABLE ((size_t)1 << 20)
+
+static vg_strmap_slot *slots_alloc(size_t cap) {
+    size_t bytes;
+    if (vg_mul_overflow(cap, sizeof(vg_strmap_slot), &bytes)) return NULL;
+    if (bytes >= BIG_TABLE) return vg_bigbuf_alloc(bytes);
+    return vg_calloc(cap, sizeof(vg_strmap_slot));
+}
+
+static void slots_free(vg_strmap_slot *s, size_t cap) {
+    size_t bytes = cap * sizeof(vg_strmap_slot);
+    if (bytes >= BIG_TABLE) {
+        vg_bigbuf_release(s, bytes);
+    } else {
+        vg_free(s);
+    }
+}
 
 /* A multiply-xorshift hash over 8-byte words (the mixing constants are
  * those of splitmix64, Steele, Lea and Flood 2014). Words in vocabularies
@@ -32,7 +55,7 @@ uint64_t vg_hash_bytes(const void *p, size_t n) {
 }
 
 static int rehash(vg_strmap *m, size_t ncap) {
-    vg_strmap_slot *ns = vg_calloc(ncap, sizeof *ns);
+    vg_strmap_slot *ns = slots_alloc(ncap);
     if (!ns) return -1;
     for (size_t i = 0; i < m->cap; i++) {
         vg_strmap_slot *o = &m->slots[i];
@@ -44,7 +67,7 @@ static int rehash(vg_strmap *m, size_t ncap) {
         while (ns[j].key) j = (j + 1) & (ncap - 1);
         ns[j] = *o;
     }
-    vg_free(m->slots);
+    if (m->slots) slots_free(m->slots, m->cap);
     m->slots = ns;
     m->cap = ncap;
     return 0;
@@ -107,7 +130,7 @@ size_t vg_strmap_get_hashed(const vg_strmap *m, const char *key, size_t len, uin
 }
 
 void vg_strmap_free(vg_strmap *m) {
-    vg_free(m->slots);
+    if (m->slots) slots_free(m->slots, m->cap);
     m->slots = NULL;
     m->cap = m->count = 0;
 }

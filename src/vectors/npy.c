@@ -22,6 +22,7 @@
 
 #include "../common/alloc.h"
 #include "../common/bigbuf.h"
+#include "../common/threads.h"
 #include "vectors_impl.h"
 
 /* ---- the header ------------------------------------------------------ */
@@ -225,7 +226,46 @@ static void convert(float *dst, const char *src, size_t n, const vg_npy_header *
     }
 }
 
+static void conv_npy(float *dst, const char *src, size_t n, const void *ctx) {
+    convert(dst, src, n, ctx);
+}
+
 /* ---- reading --------------------------------------------------------- */
+
+/* Row-major data from a mapped file, no filter: batches converted in
+ * place by all threads (batch.c). */
+static vg_status read_c_mapped(vg_src *src, const char *data, const vg_npy_header *h,
+                               const vg_vocab *vc, size_t rows, const vg_load_options *opt,
+                               vg_vectors *v, const char *path, vg_error *err) {
+    size_t rb = h->dims * h->item;
+    vg_batch b;
+    memset(&b, 0, sizeof b);
+    b.v = v;
+    b.path = path;
+    b.opt = opt;
+    b.conv = conv_npy;
+    b.conv_ctx = h;
+    b.conv_note = " (or beyond float32's range)";
+    b.threads = vg_threads_resolve(opt->threads);
+    b.cap = ((size_t)8 << 20) / rb + 1;
+    b.rows = vg_calloc(b.cap, sizeof *b.rows);
+    if (!b.rows) return vg_error_set(err, VG_ENOMEM, path, 0, "out of memory");
+    vg_status st = vg_src_start(src, 0, 0, err);
+    for (size_t i = 0; i < rows && st == VG_OK; i++) {
+        if (b.n == 0) vg_src_willneed(src, h->data_offset + (uint64_t)i * rb, b.cap * rb);
+        vg_batch_row *r = &b.rows[b.n++];
+        r->word = vc->words[i];
+        r->wlen = vc->lens[i];
+        r->src = data + i * rb;
+        r->file_row = i;
+        if (b.n == b.cap || i + 1 == rows) {
+            st = vg_batch_run(&b, err);
+            if (st == VG_OK) st = vg_src_advance(src, h->data_offset + (uint64_t)(i + 1) * rb, err);
+        }
+    }
+    vg_free(b.rows);
+    return st;
+}
 
 static vg_status bad_row(const char *path, size_t row, const char *word, const float *x,
                          size_t dims, vg_error *err) {
@@ -433,7 +473,9 @@ vg_status vg_read_npy(vg_src *src, const vg_load_options *opt, vg_vectors **out,
 
     size_t cut_at = rows;
     vg_bigbuf tmpbuf = VG_BIGBUF_INIT;
-    if (!h.fortran || rows == 0) {
+    if (!h.fortran && mapped && !v->keep_active) {
+        st = read_c_mapped(src, mapped + h.data_offset, &h, &vc, rows, opt, v, path, err);
+    } else if (!h.fortran || rows == 0) {
         vg_seq q;
         st = vg_seq_begin(&q, src, err);
         uint64_t skipped;

@@ -16,6 +16,14 @@
 
 /* Report progress at most every this many stored bytes. */
 #define PROGRESS_STEP ((uint64_t)16 << 20)
+/* The hashing thread: files from this size get one; it hashes pieces of
+ * HASH_PIECE bytes, runs at most HASH_LEAD ahead of the readers, and the
+ * readers wait when they get HASH_LAG ahead of it (the pages between the
+ * two stay resident, so the lag bounds the memory they cost). */
+#define HASH_THREAD_MIN ((size_t)16 << 20)
+#define HASH_PIECE ((size_t)4 << 20)
+#define HASH_LEAD ((uint64_t)32 << 20)
+#define HASH_LAG ((uint64_t)64 << 20)
 
 /* What a mapped empty file (or the tail of a chunk) may read: zeros. */
 static const char zero_pad[VG_SRC_PAD + 8];
@@ -43,6 +51,7 @@ static vg_src *src_new(const char *path, int hash, vg_error *err) {
     pthread_mutex_init(&s->lock, NULL);
     pthread_cond_init(&s->cv_free, NULL);
     pthread_cond_init(&s->cv_full, NULL);
+    pthread_cond_init(&s->cv_hash, NULL);
     s->chunk = VG_SRC_CHUNK;
     return s;
 }
@@ -177,11 +186,63 @@ vg_status vg_src_peek(vg_src *s, const char **p, size_t *n, int *whole, vg_error
     return VG_OK;
 }
 
+/* Give back the mapped pages below both the readers and the hasher. The
+ * page cache keeps the file, but the process's resident set then holds
+ * only the bytes in flight, not a second copy of the file beside the
+ * matrix. Anonymous copies (vg_src_open_buffer) must not be dropped: that
+ * would zero them. Call under s->lock when the hasher runs. */
+static void drop_behind(vg_src *s) {
+    if (!s->map_base) return;
+    uint64_t upto = s->sha ? VG_MIN(s->hashed, s->advanced) : s->advanced;
+    uint64_t pg = upto & ~(uint64_t)(page_size() - 1);
+    if (pg > s->dropped) {
+        madvise((char *)s->map_base + s->dropped, (size_t)(pg - s->dropped), MADV_DONTNEED);
+        s->dropped = pg;
+    }
+}
+
+static void *hasher(void *arg) {
+    vg_src *s = arg;
+    pthread_mutex_lock(&s->lock);
+    while (s->hashed < s->map_size) {
+        while (!s->hasher_stop && s->hashed >= s->advanced + HASH_LEAD)
+            pthread_cond_wait(&s->cv_hash, &s->lock);
+        if (s->hasher_stop) break;
+        uint64_t at = s->hashed;
+        size_t n = (size_t)VG_MIN((uint64_t)HASH_PIECE, s->map_size - at);
+        pthread_mutex_unlock(&s->lock);
+        vg_sha256_update(s->sha, s->map + at, n);
+        pthread_mutex_lock(&s->lock);
+        s->hashed = at + n;
+        drop_behind(s);
+        pthread_cond_broadcast(&s->cv_hash);
+    }
+    pthread_mutex_unlock(&s->lock);
+    return NULL;
+}
+
+static void hasher_join(vg_src *s, int to_the_end) {
+    if (!s->hasher_running) return;
+    pthread_mutex_lock(&s->lock);
+    if (to_the_end) {
+        s->advanced = s->map_size;
+    } else {
+        s->hasher_stop = 1;
+    }
+    pthread_cond_broadcast(&s->cv_hash);
+    pthread_mutex_unlock(&s->lock);
+    pthread_join(s->hasher, NULL);
+    s->hasher_running = 0;
+}
+
 vg_status vg_src_start(vg_src *s, int lines, size_t chunk_bytes, vg_error *err) {
     VG_ASSERT(!s->started);
     s->started = 1;
     s->lines = lines;
     if (chunk_bytes) s->chunk = chunk_bytes;
+    if (s->sha && s->map && s->map_size >= HASH_THREAD_MIN &&
+        pthread_create(&s->hasher, NULL, hasher, s) == 0)
+        s->hasher_running = 1; /* else the readers hash as they go */
     if (s->kind == SRC_MAP) {
         s->next_off = 0;
         return VG_OK;
@@ -237,24 +298,38 @@ static vg_status report(vg_src *s, uint64_t done, int force, vg_error *err) {
     return VG_OK;
 }
 
+void vg_src_willneed(vg_src *s, uint64_t offset, size_t n) {
+#ifdef MADV_POPULATE_READ
+    if (!s->map_base || offset >= s->map_size) return;
+    n = (size_t)VG_MIN((uint64_t)n, s->map_size - offset);
+    uint64_t pg = page_size();
+    uint64_t b = offset & ~(pg - 1), e = (offset + n + pg - 1) & ~(pg - 1);
+    madvise((char *)s->map_base + b, (size_t)(e - b), MADV_POPULATE_READ);
+#else
+    (void)s;
+    (void)offset;
+    (void)n;
+#endif
+}
+
 vg_status vg_src_advance(vg_src *s, uint64_t offset, vg_error *err) {
     if (!s->map) return report(s, offset, 0, err);
     if (offset > s->map_size) offset = s->map_size;
-    if (offset > s->hashed) {
+    if (s->hasher_running) {
+        pthread_mutex_lock(&s->lock);
+        if (offset > s->advanced) s->advanced = offset;
+        pthread_cond_broadcast(&s->cv_hash);
+        while (s->advanced > s->hashed + HASH_LAG) pthread_cond_wait(&s->cv_hash, &s->lock);
+        drop_behind(s);
+        pthread_mutex_unlock(&s->lock);
+        return report(s, offset, 0, err);
+    }
+    if (offset > s->hashed && s->sha) {
         vg_src_hash_bytes(s, s->map + s->hashed, (size_t)(offset - s->hashed));
         s->hashed = offset;
     }
-    /* Give the pages behind us back: the page cache keeps the file, but
-     * the process's resident set then holds only the chunks in flight,
-     * not a second copy of the file next to the matrix. Anonymous copies
-     * (vg_src_open_buffer) must not be dropped: that would zero them. */
-    if (s->map_base) {
-        uint64_t pg = offset & ~(uint64_t)(page_size() - 1);
-        if (pg > s->dropped) {
-            madvise((char *)s->map_base + s->dropped, (size_t)(pg - s->dropped), MADV_DONTNEED);
-            s->dropped = pg;
-        }
-    }
+    if (offset > s->advanced) s->advanced = offset;
+    drop_behind(s);
     return report(s, offset, 0, err);
 }
 
@@ -274,6 +349,7 @@ vg_status vg_src_finish(vg_src *s, vg_error *err) {
     s->finished = 1;
     vg_status st = VG_OK;
     if (s->kind == SRC_STREAM) vg_stream_stop(s);
+    hasher_join(s, 1);
     if (s->map) {
         st = vg_src_advance(s, s->map_size, err);
     } else if (s->fd >= 0) {
@@ -292,6 +368,7 @@ const char *vg_src_sha256(const vg_src *s) { return s->hex; }
 void vg_src_close(vg_src *s) {
     if (!s) return;
     if (s->kind == SRC_STREAM) vg_stream_stop(s);
+    hasher_join(s, 0);
     if (s->map_base) munmap(s->map_base, s->map_span);
     vg_bigbuf_free(&s->copy);
     if (s->fd >= 0) close(s->fd);
@@ -299,6 +376,7 @@ void vg_src_close(vg_src *s) {
     pthread_mutex_destroy(&s->lock);
     pthread_cond_destroy(&s->cv_free);
     pthread_cond_destroy(&s->cv_full);
+    pthread_cond_destroy(&s->cv_hash);
     vg_free(s->path);
     vg_free(s);
 }

@@ -127,6 +127,11 @@ VG_INTERNAL void vg_seq_end(vg_seq *q);
  * padded array, or NULL. Readers that can index it directly (npy in
  * Fortran order) use it and report progress with vg_src_advance. */
 VG_INTERNAL const char *vg_src_mapping(const vg_src *s, size_t *n);
+/* Map the page tables of [offset, offset + n) of the mapping in one go
+ * (a reader about to walk it): one call instead of a page fault every few
+ * pages, and the cache prefetcher can then run ahead. A hint only. */
+VG_INTERNAL void vg_src_willneed(vg_src *s, uint64_t offset, size_t n);
+
 /* Mark the mapped stream done up to offset: hash, drop pages, progress. */
 VG_INTERNAL vg_status vg_src_advance(vg_src *s, uint64_t offset, vg_error *err);
 

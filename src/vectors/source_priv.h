@@ -46,6 +46,13 @@ struct vg_src {
     char hex[65];
     uint64_t hashed;    /* stored bytes hashed (mappings) */
     uint64_t dropped;   /* mapped bytes whose pages were given back */
+    /* A mapped file of some size is hashed by its own thread, running
+     * beside the readers over the same mapped bytes, a bounded distance
+     * from them (under lock; cv_hash signals progress either way). */
+    pthread_t hasher;
+    int hasher_running, hasher_stop;
+    uint64_t advanced;  /* the readers are done up to here */
+    pthread_cond_t cv_hash;
 
     vg_progress_fn progress;
     void *progress_ctx;

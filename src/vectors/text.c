@@ -377,6 +377,8 @@ static vg_status commit(tpipe *tp, tslot *s, vg_error *err) {
     size_t dims = tp->dims;
     for (size_t i = 0; i < s->n; i++) {
         const trow *r = &s->rows[i];
+        /* The index lookup is the commit's cache miss: ask early. */
+        if (i + 8 < s->n && !s->rows[i + 8].bad) vg_strmap_prefetch(&v->index, s->rows[i + 8].key.hash);
         if (opt->max_words && v->info.rows_read + v->info.bad_rows >= opt->max_words) {
             tp->full = 1;
             return VG_OK;

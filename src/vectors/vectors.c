@@ -93,18 +93,22 @@ static int reserve_meta(vg_vectors *v, size_t need) {
     size_t ncap = v->cap_meta ? v->cap_meta : 1024;
     while (ncap < need)
         if (vg_mul_overflow(ncap, 2, &ncap)) return -1;
-    const char **nw = vg_reallocarray(v->words, ncap, sizeof *nw);
-    if (!nw) return -1;
-    v->words = nw;
-    uint32_t *nl = vg_reallocarray(v->word_lens, ncap, sizeof *nl);
-    if (!nl) return -1;
-    v->word_lens = nl;
-    float *nn = vg_reallocarray(v->norms, ncap, sizeof *nn);
-    if (!nn) return -1;
-    v->norms = nn;
+    size_t wb, lb, nb;
+    if (vg_mul_overflow(ncap, sizeof *v->words, &wb) || vg_mul_overflow(ncap, sizeof *v->word_lens, &lb) ||
+        vg_mul_overflow(ncap, sizeof *v->norms, &nb))
+        return -1;
+    /* Mappings grown by mremap: no copy, no old-plus-new peak. */
+    if (vg_bigbuf_reserve(&v->meta_words, wb) != 0 || vg_bigbuf_reserve(&v->meta_lens, lb) != 0 ||
+        vg_bigbuf_reserve(&v->meta_norms, nb) != 0)
+        return -1;
+    v->words = v->meta_words.p;
+    v->word_lens = v->meta_lens.p;
+    v->norms = v->meta_norms.p;
     v->cap_meta = ncap;
     return 0;
 }
+
+int vg_vecbuild_reserve_meta(vg_vectors *v, size_t rows) { return reserve_meta(v, rows); }
 
 /* Key under which word is indexed (NFC, optionally folded); *to_free is
  * what the caller must vg_free (NULL when the key is word itself). NULL
@@ -317,6 +321,15 @@ vg_status vg_vecbuild_finish(vg_vectors *v, vg_error *err) {
      * row; the matrix keeps its place, so pointers stay valid. */
     vg_bigbuf_shrink(&v->mat, v->rows * v->ld * sizeof(float));
     v->data = v->mat.p;
+    vg_bigbuf_shrink(&v->meta_words, v->rows * sizeof *v->words);
+    vg_bigbuf_shrink(&v->meta_lens, v->rows * sizeof *v->word_lens);
+    vg_bigbuf_shrink(&v->meta_norms, v->rows * sizeof *v->norms);
+    v->words = v->meta_words.p;
+    v->word_lens = v->meta_lens.p;
+    v->norms = v->meta_norms.p;
+    v->cap_meta = VG_MIN(VG_MIN(v->meta_words.reserved / sizeof *v->words,
+                                v->meta_lens.reserved / sizeof *v->word_lens),
+                         VG_MIN(v->meta_norms.reserved / sizeof *v->norms, v->cap_meta));
     v->cap_rows = v->mat.reserved / (v->ld * sizeof(float));
     v->info.rows = v->rows;
     v->info.zero_rows = zero;
@@ -361,9 +374,9 @@ vg_status vg_vectors_from_matrix(const char *const *words, size_t rows, const fl
 void vg_vectors_free(vg_vectors *v) {
     if (!v) return;
     vg_bigbuf_free(&v->mat);
-    vg_free(v->norms);
-    vg_free(v->words);
-    vg_free(v->word_lens);
+    vg_bigbuf_free(&v->meta_words);
+    vg_bigbuf_free(&v->meta_lens);
+    vg_bigbuf_free(&v->meta_norms);
     vg_arena_free(&v->arena);
     vg_strmap_free(&v->index);
     if (v->folded) {

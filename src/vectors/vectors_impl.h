@@ -42,6 +42,7 @@ struct vg_vectors {
     const char **words;     /* rows pointers into arena, NUL-terminated */
     uint32_t *word_lens;
     size_t cap_meta;        /* capacity of norms, words, word_lens */
+    vg_bigbuf meta_words, meta_lens, meta_norms; /* their storage (huge pages, mremap) */
     vg_arena arena;         /* words and (non-NFC) index keys */
     vg_strmap index;        /* NFC(word) -> row */
     vg_folded_index *folded;/* fold(word) -> lowest row; built on first use */
@@ -98,6 +99,8 @@ VG_INTERNAL vg_status vg_vecbuild_add(vg_vectors *v, const vg_rowkey *k, float n
  * no other thread may be writing rows). For readers that write values
  * in place before offering the rows. 0, or -1 when out of memory. */
 VG_INTERNAL int vg_vecbuild_reserve(vg_vectors *v, size_t rows);
+/* The same for the per-row arrays (words, lengths, norms). */
+VG_INTERNAL int vg_vecbuild_reserve_meta(vg_vectors *v, size_t rows);
 
 /* vg_rowkey_make + vg_vecbuild_add + copy, for one row of values. */
 VG_INTERNAL vg_status vg_vecbuild_push(vg_vectors *v, const char *word, size_t len,
@@ -138,6 +141,39 @@ VG_INTERNAL vg_status vg_detect_layout(const char *p, size_t n, int whole, vg_la
  * of the line including its '\n' (and a '\r' before it), 0 if p does not
  * start with such a line. */
 VG_INTERNAL size_t vg_detect_count_dims(const char *p, size_t n, size_t *count, size_t *dims);
+
+/* ---- rows of fixed layouts from a mapping (batch.c) -------------------- */
+
+/* Stored values of one row to dims floats. */
+typedef void (*vg_convert_fn)(float *dst, const char *src, size_t dims, const void *ctx);
+
+typedef struct vg_batch_row {
+    const char *word;       /* borrowed (the mapping, or a vocabulary) */
+    size_t wlen;
+    const char *src;        /* the stored values */
+    uint64_t file_row;      /* 0-based: also its provisional matrix row */
+    vg_rowkey key;
+    float norm;
+    unsigned char bad, keyfail;
+} vg_batch_row;
+
+typedef struct vg_batch {
+    vg_vectors *v;          /* no row filter */
+    const char *path;
+    const vg_load_options *opt;
+    vg_convert_fn conv;
+    const void *conv_ctx;
+    const char *where;      /* text before "word" in messages, or NULL */
+    const char *conv_note;  /* text after "not finite", or NULL */
+    unsigned threads;
+    vg_batch_row *rows;
+    size_t n, cap;
+} vg_batch;
+
+/* Convert, check and key the batch's rows on all threads, straight into
+ * matrix row file_row; then add them in order (a bad row skipped and
+ * counted, or reported). Empties the batch. */
+VG_INTERNAL vg_status vg_batch_run(vg_batch *b, vg_error *err);
 
 /* ---- the readers ------------------------------------------------------ */
 
