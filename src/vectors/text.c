@@ -61,7 +61,8 @@ typedef struct tslot {
     vg_error bad_err;       /* the chunk's first bad row (line within chunk) */
     vg_status fatal;        /* out of memory while parsing */
     size_t *fs, *fe, fcap;  /* field offsets for the careful path */
-    uint64_t base;          /* direct: matrix row of the chunk's first line */
+    uint64_t base;          /* direct: matrix row of the chunk's first row line */
+    uint64_t skip;          /* lines before it: the header, in the first chunk */
 } tslot;
 
 typedef struct tpipe {
@@ -283,9 +284,16 @@ static int slot_room(tslot *s, size_t dims) {
     return 0;
 }
 
-/* Where the values of the chunk's line (1-based) go. */
+/* Direct mode: the matrix row of the chunk's line (1-based). In a file
+ * without blank lines, bad rows or duplicates it is the row's final one,
+ * so the commit copies nothing. */
+static float *direct_place(const tpipe *tp, const tslot *s, uint64_t line) {
+    return tp->v->data + (s->base + line - 1 - s->skip) * tp->v->ld;
+}
+
+/* Where the values of the chunk's line go. */
 static float *row_place(tpipe *tp, tslot *s, uint64_t line) {
-    if (tp->direct) return tp->v->data + (s->base + line - 1) * tp->v->ld;
+    if (tp->direct) return direct_place(tp, s, line);
     return s->vals + s->n * tp->dims;
 }
 
@@ -404,7 +412,7 @@ static vg_status commit(tpipe *tp, tslot *s, vg_error *err) {
         } else {
             /* In place already, unless an earlier row was dropped; the
              * row's own place is always later, so the two never overlap. */
-            const float *src = v->data + (s->base + r->line - 1) * v->ld;
+            const float *src = direct_place(tp, s, r->line);
             if (dst != src) memcpy(dst, src, dims * sizeof(float));
         }
     }
@@ -454,6 +462,8 @@ static void worker(void *ctx, unsigned t, unsigned nt) {
         }
         if (tp->direct) {
             uint64_t lines = count_lines(s->chunk.data, s->chunk.len);
+            s->skip = s->chunk.offset == 0 && tp->d->has_header && lines > 0;
+            lines -= s->skip;
             pthread_mutex_lock(&tp->lock);
             while (!tp->stop && tp->based != s->chunk.index) pthread_cond_wait(&tp->cv, &tp->lock);
             if (!tp->stop) {

@@ -111,4 +111,20 @@ expect_status "vcli-10 score a .npy with --vocab and --format" 0 "$VG_BIN" score
 check "vcli-10 same values from text and npy" test "$(cut -d, -f2- "$TMP/r1/scores.csv")" = "$(cut -d, -f2- "$TMP/r2/scores.csv")"
 expect_status "vcli-10 score --skip-bad-rows" 0 "$VG_BIN" score --pairs "$F/../pairs/basic.tsv" --out "$TMP/r3" --skip-bad-rows "$F/notnumber.txt"
 expect_status "vcli-10 score bad --format: usage 2" 2 "$VG_BIN" score --pairs "$TMP/pairs.tsv" --format xyz "$TMP/v.txt"
+# vcli-11: on a terminal (a pseudo-terminal from script(1)) the progress
+# line appears on stderr; --no-progress hides it.
+if command -v script > /dev/null 2>&1; then
+    big="$TMP/big.txt"
+    "$PY" -c "
+import random; random.seed(3)
+with open('$big', 'w') as f:
+    for i in range(40000): f.write('w%d %s\n' % (i, ' '.join('%.6f' % random.uniform(-1, 1) for _ in range(60))))"
+    script -qc "'$VG_BIN' inspect '$big' > /dev/null" /dev/null > "$TMP/tty.out" 2>&1
+    expect_in "vcli-11 progress line on a terminal" "MB of" "$TMP/tty.out"
+    script -qc "'$VG_BIN' inspect --no-progress '$big' > /dev/null" /dev/null > "$TMP/tty2.out" 2>&1
+    if ! grep -q "MB of" "$TMP/tty2.out"; then ok "vcli-11 --no-progress hides it"; else not_ok "vcli-11 --no-progress still drew"; fi
+else
+    skip "vcli-11 script(1) not available for a pseudo-terminal"
+    skip "vcli-11 script(1) not available for a pseudo-terminal"
+fi
 done_testing
