@@ -27,7 +27,7 @@ static void convert_share(void *ctx, unsigned t, unsigned nt) {
     for (size_t i = lo; i < hi; i++) {
         vg_batch_row *r = &b->rows[i];
         float *dst = v->data + r->file_row * v->ld;
-        b->conv(dst, r->src, v->dims, b->conv_ctx);
+        if (b->conv) b->conv(dst, r->src, v->dims, b->conv_ctx);
         r->bad = !vg_all_finite(dst, v->dims);
         r->norm = r->bad ? 0 : vg_row_norm(dst, v->dims);
         r->keyfail = vg_rowkey_make(v, r->word, r->wlen, &r->key) != 0;

@@ -19,6 +19,7 @@
  */
 #include <math.h>
 #include <string.h>
+#include <sys/mman.h>
 
 #include "../common/alloc.h"
 #include "../common/bigbuf.h"
@@ -236,14 +237,14 @@ static void conv_npy(float *dst, const char *src, size_t n, const void *ctx) {
  * place by all threads (batch.c). */
 static vg_status read_c_mapped(vg_src *src, const char *data, const vg_npy_header *h,
                                const vg_vocab *vc, size_t rows, const vg_load_options *opt,
-                               vg_vectors *v, const char *path, vg_error *err) {
+                               vg_vectors *v, const char *path, int in_place, vg_error *err) {
     size_t rb = h->dims * h->item;
     vg_batch b;
     memset(&b, 0, sizeof b);
     b.v = v;
     b.path = path;
     b.opt = opt;
-    b.conv = conv_npy;
+    b.conv = in_place ? NULL : conv_npy;
     b.conv_ctx = h;
     b.conv_note = " (or beyond float32's range)";
     b.threads = vg_threads_resolve(opt->threads);
@@ -473,8 +474,25 @@ vg_status vg_read_npy(vg_src *src, const vg_load_options *opt, vg_vectors **out,
 
     size_t cut_at = rows;
     vg_bigbuf tmpbuf = VG_BIGBUF_INIT;
-    if (!h.fortran && mapped && !v->keep_active) {
-        st = read_c_mapped(src, mapped + h.data_offset, &h, &vc, rows, opt, v, path, err);
+    int native = h.item == 4 && h.big_endian ==
+#if defined(__BYTE_ORDER__) && __BYTE_ORDER__ == __ORDER_BIG_ENDIAN__
+                                  1;
+#else
+                                  0;
+#endif
+    if (!h.fortran && mapped && !v->keep_active && native && !opt->copy_matrix &&
+        (uintptr_t)(mapped + h.data_offset) % 64 == 0 && rows > 0) {
+        /* The stored rows are the matrix: validate them in place. */
+        size_t span;
+        void *base = vg_src_take_mapping(src, &span);
+        if (base) {
+            vg_vecbuild_adopt(v, base, span, (float *)(uintptr_t)(mapped + h.data_offset), rows);
+            st = read_c_mapped(src, mapped + h.data_offset, &h, &vc, rows, opt, v, path, 1, err);
+        } else {
+            st = read_c_mapped(src, mapped + h.data_offset, &h, &vc, rows, opt, v, path, 0, err);
+        }
+    } else if (!h.fortran && mapped && !v->keep_active) {
+        st = read_c_mapped(src, mapped + h.data_offset, &h, &vc, rows, opt, v, path, 0, err);
     } else if (!h.fortran || rows == 0) {
         vg_seq q;
         st = vg_seq_begin(&q, src, err);

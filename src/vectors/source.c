@@ -192,7 +192,7 @@ vg_status vg_src_peek(vg_src *s, const char **p, size_t *n, int *whole, vg_error
  * matrix. Anonymous copies (vg_src_open_buffer) must not be dropped: that
  * would zero them. Call under s->lock when the hasher runs. */
 static void drop_behind(vg_src *s) {
-    if (!s->map_base) return;
+    if (!s->map_base || s->taken) return;
     uint64_t upto = s->sha ? VG_MIN(s->hashed, s->advanced) : s->advanced;
     uint64_t pg = upto & ~(uint64_t)(page_size() - 1);
     if (pg > s->dropped) {
@@ -298,6 +298,18 @@ static vg_status report(vg_src *s, uint64_t done, int force, vg_error *err) {
     return VG_OK;
 }
 
+void *vg_src_take_mapping(vg_src *s, size_t *span) {
+    if (s->kind != SRC_MAP || !s->map_base || vg_alloc_hook_fails()) return NULL;
+    /* Private: writes (closing a gap between rows) copy a page, never
+     * reach the file. */
+    if (mprotect(s->map_base, s->map_span, PROT_READ | PROT_WRITE) != 0) return NULL;
+    pthread_mutex_lock(&s->lock);
+    s->taken = 1;
+    pthread_mutex_unlock(&s->lock);
+    *span = s->map_span;
+    return s->map_base;
+}
+
 void vg_src_willneed(vg_src *s, uint64_t offset, size_t n) {
 #ifdef MADV_POPULATE_READ
     if (!s->map_base || offset >= s->map_size) return;
@@ -369,7 +381,7 @@ void vg_src_close(vg_src *s) {
     if (!s) return;
     if (s->kind == SRC_STREAM) vg_stream_stop(s);
     hasher_join(s, 0);
-    if (s->map_base) munmap(s->map_base, s->map_span);
+    if (s->map_base && !s->taken) munmap(s->map_base, s->map_span);
     vg_bigbuf_free(&s->copy);
     if (s->fd >= 0) close(s->fd);
     vg_sha256_free(s->sha);

@@ -46,6 +46,7 @@ struct vg_src {
     char hex[65];
     uint64_t hashed;    /* stored bytes hashed (mappings) */
     uint64_t dropped;   /* mapped bytes whose pages were given back */
+    int taken;          /* the mapping became a reader's (no dropping, no unmap) */
     /* A mapped file of some size is hashed by its own thread, running
      * beside the readers over the same mapped bytes, a bounded distance
      * from them (under lock; cv_hash signals progress either way). */

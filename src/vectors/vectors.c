@@ -7,6 +7,11 @@
 #include <pthread.h>
 #include <stdlib.h>
 #include <string.h>
+#include <sys/mman.h>
+
+#ifdef __SSE2__
+#include <emmintrin.h>
+#endif
 
 #include "../common/alloc.h"
 #include "../common/text.h"
@@ -44,24 +49,53 @@ vg_status vg_layout_parse(const char *name, vg_layout *out) {
     return VG_EINVAL;
 }
 
+/* The L2 norm with eight partial sums, element j into sum j % 8, then
+ * ((s0 + s1) + (s2 + s3)) + ((s4 + s5) + (s6 + s7)). The SSE2 code does
+ * exactly these double operations in that order (two sums per register,
+ * no fused multiply-add), so every build gives the same bits. */
 float vg_row_norm(const float *x, size_t n) {
-    double s0 = 0, s1 = 0, s2 = 0, s3 = 0;
+    double s[8] = {0, 0, 0, 0, 0, 0, 0, 0};
     size_t j = 0;
-    for (; j + 4 <= n; j += 4) {
-        s0 += (double)x[j] * x[j];
-        s1 += (double)x[j + 1] * x[j + 1];
-        s2 += (double)x[j + 2] * x[j + 2];
-        s3 += (double)x[j + 3] * x[j + 3];
+#ifdef __SSE2__
+    __m128d a0 = _mm_setzero_pd(), a1 = a0, a2 = a0, a3 = a0;
+    for (; j + 8 <= n; j += 8) {
+        __m128 u = _mm_loadu_ps(x + j), w = _mm_loadu_ps(x + j + 4);
+        __m128d d0 = _mm_cvtps_pd(u), d1 = _mm_cvtps_pd(_mm_movehl_ps(u, u));
+        __m128d d2 = _mm_cvtps_pd(w), d3 = _mm_cvtps_pd(_mm_movehl_ps(w, w));
+        a0 = _mm_add_pd(a0, _mm_mul_pd(d0, d0));
+        a1 = _mm_add_pd(a1, _mm_mul_pd(d1, d1));
+        a2 = _mm_add_pd(a2, _mm_mul_pd(d2, d2));
+        a3 = _mm_add_pd(a3, _mm_mul_pd(d3, d3));
     }
-    for (; j < n; j++) s0 += (double)x[j] * x[j];
-    return (float)sqrt((s0 + s1) + (s2 + s3));
+    _mm_storeu_pd(s, a0);
+    _mm_storeu_pd(s + 2, a1);
+    _mm_storeu_pd(s + 4, a2);
+    _mm_storeu_pd(s + 6, a3);
+#else
+    for (; j + 8 <= n; j += 8)
+        for (size_t k = 0; k < 8; k++) s[k] += (double)x[j + k] * x[j + k];
+#endif
+    for (; j < n; j++) s[j % 8] += (double)x[j] * x[j];
+    return (float)sqrt(((s[0] + s[1]) + (s[2] + s[3])) + ((s[4] + s[5]) + (s[6] + s[7])));
 }
 
 int vg_all_finite(const float *x, size_t n) {
     /* An IEEE float is NaN or infinite exactly when its exponent bits are
-     * all ones; or-ing a flag keeps the loop free of branches. */
+     * all ones. */
+    size_t j = 0;
     uint32_t bad = 0;
-    for (size_t j = 0; j < n; j++) {
+#ifdef __SSE2__
+    const __m128i e = _mm_set1_epi32(0x7f800000);
+    __m128i acc = _mm_setzero_si128();
+    for (; j + 8 <= n; j += 8) {
+        __m128i u = _mm_loadu_si128((const __m128i *)(const void *)(x + j));
+        __m128i w = _mm_loadu_si128((const __m128i *)(const void *)(x + j + 4));
+        acc = _mm_or_si128(acc, _mm_cmpeq_epi32(_mm_and_si128(u, e), e));
+        acc = _mm_or_si128(acc, _mm_cmpeq_epi32(_mm_and_si128(w, e), e));
+    }
+    bad = (uint32_t)_mm_movemask_epi8(acc);
+#endif
+    for (; j < n; j++) {
         uint32_t b;
         memcpy(&b, &x[j], sizeof b);
         bad |= (uint32_t)((b & 0x7f800000u) == 0x7f800000u);
@@ -73,6 +107,7 @@ int vg_all_finite(const float *x, size_t n) {
  * memory when written. */
 static int reserve_matrix(vg_vectors *v, size_t need) {
     if (need <= v->cap_rows) return 0;
+    if (v->file_map) return -1; /* a file's rows cannot grow */
     size_t ncap = v->cap_rows ? v->cap_rows : 1024;
     while (ncap < need)
         if (vg_mul_overflow(ncap, 2, &ncap)) return -1;
@@ -86,6 +121,14 @@ static int reserve_matrix(vg_vectors *v, size_t need) {
 }
 
 int vg_vecbuild_reserve(vg_vectors *v, size_t rows) { return reserve_matrix(v, rows); }
+
+void vg_vecbuild_adopt(vg_vectors *v, void *base, size_t span, float *data, size_t cap_rows) {
+    vg_bigbuf_free(&v->mat);
+    v->file_map = base;
+    v->file_span = span;
+    v->data = data;
+    v->cap_rows = cap_rows;
+}
 
 /* Room for need rows in the per-row arrays (words, lengths, norms). */
 static int reserve_meta(vg_vectors *v, size_t need) {
@@ -319,8 +362,10 @@ vg_status vg_vecbuild_finish(vg_vectors *v, vg_error *err) {
     for (size_t i = 0; i < v->rows; i++) zero += v->norms[i] == 0;
     /* Give back the address space (and any touched pages) past the last
      * row; the matrix keeps its place, so pointers stay valid. */
-    vg_bigbuf_shrink(&v->mat, v->rows * v->ld * sizeof(float));
-    v->data = v->mat.p;
+    if (!v->file_map) {
+        vg_bigbuf_shrink(&v->mat, v->rows * v->ld * sizeof(float));
+        v->data = v->mat.p;
+    }
     vg_bigbuf_shrink(&v->meta_words, v->rows * sizeof *v->words);
     vg_bigbuf_shrink(&v->meta_lens, v->rows * sizeof *v->word_lens);
     vg_bigbuf_shrink(&v->meta_norms, v->rows * sizeof *v->norms);
@@ -330,7 +375,7 @@ vg_status vg_vecbuild_finish(vg_vectors *v, vg_error *err) {
     v->cap_meta = VG_MIN(VG_MIN(v->meta_words.reserved / sizeof *v->words,
                                 v->meta_lens.reserved / sizeof *v->word_lens),
                          VG_MIN(v->meta_norms.reserved / sizeof *v->norms, v->cap_meta));
-    v->cap_rows = v->mat.reserved / (v->ld * sizeof(float));
+    if (!v->file_map) v->cap_rows = v->mat.reserved / (v->ld * sizeof(float));
     v->info.rows = v->rows;
     v->info.zero_rows = zero;
     v->info.dims = v->dims;
@@ -374,6 +419,7 @@ vg_status vg_vectors_from_matrix(const char *const *words, size_t rows, const fl
 void vg_vectors_free(vg_vectors *v) {
     if (!v) return;
     vg_bigbuf_free(&v->mat);
+    if (v->file_map) munmap(v->file_map, v->file_span);
     vg_bigbuf_free(&v->meta_words);
     vg_bigbuf_free(&v->meta_lens);
     vg_bigbuf_free(&v->meta_norms);

@@ -37,6 +37,8 @@ struct vg_vectors {
     size_t rows, dims, ld;
     float *data;            /* == mat.p: rows x ld, page (so 64-byte) aligned */
     vg_bigbuf mat;          /* the matrix's address space, grown by mremap */
+    void *file_map;         /* or: the input file's private mapping holds it */
+    size_t file_span;
     size_t cap_rows;        /* rows that fit in mat */
     float *norms;           /* rows (NAN: computed by vg_vecbuild_finish) */
     const char **words;     /* rows pointers into arena, NUL-terminated */
@@ -99,6 +101,14 @@ VG_INTERNAL vg_status vg_vecbuild_add(vg_vectors *v, const vg_rowkey *k, float n
  * no other thread may be writing rows). For readers that write values
  * in place before offering the rows. 0, or -1 when out of memory. */
 VG_INTERNAL int vg_vecbuild_reserve(vg_vectors *v, size_t rows);
+/* Use rows stored in a file's private mapping (base, span bytes, owned
+ * from now on) as the matrix: data (64-byte aligned) holds cap_rows rows
+ * of dims floats in file order. Rows are then added as by the batch path
+ * (vg_batch with conv NULL) and only moved to close a gap. Call right
+ * after vg_vecbuild_begin. */
+VG_INTERNAL void vg_vecbuild_adopt(vg_vectors *v, void *base, size_t span, float *data,
+                                   size_t cap_rows);
+
 /* The same for the per-row arrays (words, lengths, norms). */
 VG_INTERNAL int vg_vecbuild_reserve_meta(vg_vectors *v, size_t rows);
 
@@ -111,9 +121,9 @@ VG_INTERNAL vg_status vg_vecbuild_push(vg_vectors *v, const char *word, size_t l
  * space; the set is then complete and immutable. */
 VG_INTERNAL vg_status vg_vecbuild_finish(vg_vectors *v, vg_error *err);
 
-/* The L2 norm of x[0..n): squares summed in double in a fixed order (four
- * interleaved partial sums), so that every reader gives identical norms
- * for identical values. */
+/* The L2 norm of x[0..n): squares summed in double in a fixed order
+ * (eight interleaved partial sums), so that every reader, thread count and
+ * build gives identical norms for identical values. */
 VG_INTERNAL float vg_row_norm(const float *x, size_t n);
 
 /* 1 if every x[i] is finite. */
@@ -161,7 +171,7 @@ typedef struct vg_batch {
     vg_vectors *v;          /* no row filter */
     const char *path;
     const vg_load_options *opt;
-    vg_convert_fn conv;
+    vg_convert_fn conv;     /* NULL: the values are in place already */
     const void *conv_ctx;
     const char *where;      /* text before "word" in messages, or NULL */
     const char *conv_note;  /* text after "not finite", or NULL */

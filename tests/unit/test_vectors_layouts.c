@@ -95,6 +95,39 @@ static void test_npy(void **state) {
     vg_vectors_free(v);
 }
 
+/* layout-3b: a float32 little-endian .npy is used in place (a private
+ * mapping): a duplicate word closes its gap by moving a row, which must
+ * not reach the file; copy_matrix gives the same set from copied memory. */
+static void test_npy_in_place(void **state) {
+    (void)state;
+    FILE *fp = fopen(fixture("vectors/dupvocab.npy"), "rb");
+    assert_non_null(fp);
+    char before[512], after[512];
+    size_t n = fread(before, 1, sizeof before, fp);
+    fclose(fp);
+    vg_vectors *v = load("vectors/dupvocab.npy");
+    assert_int_equal(vg_vectors_rows(v), 2);
+    assert_int_equal(info(v)->duplicates, 1);
+    assert_true(pointer_aligned(vg_vectors_data(v), 64));
+    const float *g = vg_vectors_row(v, vg_vectors_find(v, "gamma", 5));
+    assert_true(g[0] == 0 && g[1] == 0 && g[2] == 0);
+    const float *a = vg_vectors_row(v, 0);
+    assert_true(a[0] == 1.0f && a[1] == 0.0f && a[2] == 0.5f);
+    fp = fopen(fixture("vectors/dupvocab.npy"), "rb");
+    assert_non_null(fp);
+    assert_int_equal(fread(after, 1, sizeof after, fp), n);
+    fclose(fp);
+    assert_memory_equal(before, after, n);
+    vg_load_options opt;
+    vg_load_options_init(&opt);
+    opt.copy_matrix = 1;
+    vg_vectors *c = load_opt("vectors/dupvocab.npy", &opt);
+    assert_memory_equal(vg_vectors_data(c), vg_vectors_data(v), 2 * 3 * sizeof(float));
+    assert_memory_equal(vg_vectors_norms(c), vg_vectors_norms(v), 2 * sizeof(float));
+    vg_vectors_free(c);
+    vg_vectors_free(v);
+}
+
 /* layout-4: gzip of each layout, known by the magic bytes: the npy one
  * is named .npy.gz and still finds gzbasic.vocab. */
 static void test_gzip_each_layout(void **state) {
@@ -447,7 +480,8 @@ static void test_alloc_failures(void **state) {
 int main(void) {
     const struct CMUnitTest tests[] = {
         cmocka_unit_test(test_text_header),      cmocka_unit_test(test_binary),
-        cmocka_unit_test(test_npy),              cmocka_unit_test(test_gzip_each_layout),
+        cmocka_unit_test(test_npy),              cmocka_unit_test(test_npy_in_place),
+        cmocka_unit_test(test_gzip_each_layout),
         cmocka_unit_test(test_gzip_errors),      cmocka_unit_test(test_detect_two_ints),
         cmocka_unit_test(test_forced_format),    cmocka_unit_test(test_words_with_spaces),
         cmocka_unit_test(test_header_mismatch),  cmocka_unit_test(test_huge_header_count),
