@@ -133,9 +133,8 @@ vg_status vg_read_binary(vg_src *src, const vg_detect *d, const vg_load_options 
     const char *path = vg_src_path(src);
     size_t dims = d->dims;
     size_t row_bytes = dims * sizeof(float);
-    uint64_t stream_max = vg_src_stored_bytes(src);
-    if (vg_src_gzip(src)) stream_max = stream_max > UINT64_MAX / 1032 ? UINT64_MAX : stream_max * 1032;
-    size_t bound = (size_t)VG_MIN(stream_max / (row_bytes + 2) + 1, (uint64_t)SIZE_MAX / 2);
+    uint64_t stream_max = vg_src_stream_bound(src);
+    size_t bound = stream_max ? (size_t)VG_MIN(stream_max / (row_bytes + 2) + 1, (uint64_t)SIZE_MAX / 2) : 0;
     vg_vectors *v = NULL;
     vg_status st = vg_vecbuild_begin(dims, d->header_rows, bound, opt, &v, err);
     if (st != VG_OK) {

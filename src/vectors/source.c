@@ -160,6 +160,12 @@ const char *vg_src_path(const vg_src *s) { return s->path; }
 int vg_src_gzip(const vg_src *s) { return s->gzip; }
 uint64_t vg_src_stored_bytes(const vg_src *s) { return s->stored; }
 
+uint64_t vg_src_stream_bound(const vg_src *s) {
+    if (!s->map) return 0;
+    if (!s->gzip) return s->map_size;
+    return s->map_size > UINT64_MAX / 1032 ? UINT64_MAX : (uint64_t)s->map_size * 1032;
+}
+
 const char *vg_src_mapping(const vg_src *s, size_t *n) {
     if (s->kind != SRC_MAP) return NULL;
     *n = s->map_size;

@@ -58,6 +58,9 @@ VG_INTERNAL int vg_src_gzip(const vg_src *s);
 /* The size of the file as stored (compressed size for gzip); for a pipe,
  * the bytes read so far. */
 VG_INTERNAL uint64_t vg_src_stored_bytes(const vg_src *s);
+/* An upper bound on the stream's length: the file size, times 1032 for
+ * gzip (the deflate format's largest expansion); 0 when unknown (a pipe). */
+VG_INTERNAL uint64_t vg_src_stream_bound(const vg_src *s);
 
 /* The first bytes of the stream (up to one chunk) for layout detection:
  * *whole is 1 when they are the entire stream. Valid until vg_src_close;

@@ -539,11 +539,9 @@ vg_status vg_read_text(vg_src *src, const vg_detect *d, const vg_load_options *o
     const char *path = vg_src_path(src);
     size_t dims = d->dims;
     /* Rows the input can hold: every row takes at least a word, and a
-     * delimiter and a digit per value. gzip inflates at most 1032-fold
-     * (the deflate format's limit), which bounds a compressed file too. */
-    uint64_t stream_max = vg_src_stored_bytes(src);
-    if (vg_src_gzip(src)) stream_max = stream_max > UINT64_MAX / 1032 ? UINT64_MAX : stream_max * 1032;
-    size_t bound = (size_t)VG_MIN(stream_max / (2 * (uint64_t)dims + 1) + 1, (uint64_t)SIZE_MAX / 2);
+     * delimiter and a digit per value (no bound for a pipe). */
+    uint64_t stream_max = vg_src_stream_bound(src);
+    size_t bound = stream_max ? (size_t)VG_MIN(stream_max / (2 * (uint64_t)dims + 1) + 1, (uint64_t)SIZE_MAX / 2) : 0;
     vg_vectors *v = NULL;
     vg_status st = vg_vecbuild_begin(dims, d->has_header ? d->header_rows : 0, bound, opt, &v, err);
     if (st != VG_OK) {

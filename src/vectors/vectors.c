@@ -122,6 +122,8 @@ static int reserve_matrix(vg_vectors *v, size_t need) {
 
 int vg_vecbuild_reserve(vg_vectors *v, size_t rows) { return reserve_matrix(v, rows); }
 
+size_t vg_vecbuild_test_reserve;
+
 void vg_vecbuild_adopt(vg_vectors *v, void *base, size_t span, float *data, size_t cap_rows) {
     vg_bigbuf_free(&v->mat);
     v->file_map = base;
@@ -221,6 +223,7 @@ vg_status vg_vecbuild_begin(size_t dims, size_t rows_hint, size_t rows_bound,
         reserve = VG_MIN(rows_bound, max_rows);
     } else {
         reserve = VG_MIN(VG_MAX(hint, RESERVE_DEFAULT / (dims * sizeof(float)) + 1), max_rows);
+        if (vg_vecbuild_test_reserve) reserve = vg_vecbuild_test_reserve;
     }
     if (st == VG_OK && reserve_matrix(v, VG_MAX(reserve, 1)) != 0) {
         /* A bound beyond the address space: start small and grow. */

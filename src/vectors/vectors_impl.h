@@ -109,6 +109,10 @@ VG_INTERNAL int vg_vecbuild_reserve(vg_vectors *v, size_t rows);
 VG_INTERNAL void vg_vecbuild_adopt(vg_vectors *v, void *base, size_t span, float *data,
                                    size_t cap_rows);
 
+/* Tests only: when non-zero, the rows reserved for an input of unknown
+ * size (a pipe), so that the growth paths run on small inputs. */
+VG_INTERNAL extern size_t vg_vecbuild_test_reserve;
+
 /* The same for the per-row arrays (words, lengths, norms). */
 VG_INTERNAL int vg_vecbuild_reserve_meta(vg_vectors *v, size_t rows);
 
