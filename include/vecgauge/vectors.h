@@ -69,12 +69,6 @@ typedef struct vg_load_options {
     int fold_case;           /* also build the case-folded index */
     vg_progress_fn progress; /* NULL: no progress reports */
     void *progress_ctx;
-    /* A little-endian float32 C-order .npy file (unfiltered) is used in
-     * place: the matrix is a private memory mapping of the file, read at
-     * memory speed and never copied. The file must then stay as it is
-     * while the set is in use (truncating a mapped file is a SIGBUS).
-     * copy_matrix = 1 copies it into memory of its own instead. */
-    int copy_matrix;
 } vg_load_options;
 
 /* Fill *opt with the defaults: auto layout, all rows, hash on, no filter. */

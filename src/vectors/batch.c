@@ -24,10 +24,20 @@ static void convert_share(void *ctx, unsigned t, unsigned nt) {
     vg_batch *b = ctx;
     vg_vectors *v = b->v;
     size_t lo = b->n * t / nt, hi = b->n * (t + 1) / nt;
+    b->fill_st[t] = VG_OK;
+    if (b->fill && hi > lo) {
+        const vg_batch_row *r = &b->rows[lo];
+        b->fill_st[t] = b->fill(b->fill_ctx, r->file_row, hi - lo, v->data + r->file_row * v->ld,
+                                &b->fill_err[t]);
+        if (b->fill_st[t] != VG_OK) {
+            for (size_t i = lo; i < hi; i++) b->rows[i].keyfail = 2;
+            return;
+        }
+    }
     for (size_t i = lo; i < hi; i++) {
         vg_batch_row *r = &b->rows[i];
         float *dst = v->data + r->file_row * v->ld;
-        if (b->conv) b->conv(dst, r->src, v->dims, b->conv_ctx);
+        if (b->conv && !b->fill) b->conv(dst, r->src, v->dims, b->conv_ctx);
         r->bad = !vg_all_finite(dst, v->dims);
         r->norm = r->bad ? 0 : vg_row_norm(dst, v->dims);
         r->keyfail = vg_rowkey_make(v, r->word, r->wlen, &r->key) != 0;
@@ -43,8 +53,19 @@ vg_status vg_batch_run(vg_batch *b, vg_error *err) {
         b->n = 0;
         return vg_error_set(err, VG_ENOMEM, b->path, 0, "out of memory for the matrix");
     }
-    unsigned nt = b->n < 64 ? 1 : b->threads;
+    unsigned nt = b->n < 64 ? 1 : VG_MIN(b->threads, (unsigned)VG_BATCH_SHARES);
     vg_parallel(nt, convert_share, b);
+    for (unsigned t = 0; t < nt; t++) {
+        if (b->fill_st[t] != VG_OK) {
+            /* Nothing was added yet: fail before the first row. */
+            *err = b->fill_err[t];
+            st = b->fill_st[t];
+            for (size_t i = 0; i < b->n; i++)
+                if (b->rows[i].keyfail == 0) vg_rowkey_clear(&b->rows[i].key);
+            b->n = 0;
+            return st;
+        }
+    }
     for (size_t i = 0; i < b->n && st == VG_OK; i++) {
         if (i + PREFETCH_AHEAD < b->n && !b->rows[i + PREFETCH_AHEAD].keyfail)
             vg_strmap_prefetch(&v->index, b->rows[i + PREFETCH_AHEAD].key.hash);

@@ -14,6 +14,7 @@
 #include <string.h>
 
 #include "../common/alloc.h"
+#include "../common/bigbuf.h"
 #include "../common/threads.h"
 #include "vectors_impl.h"
 
@@ -47,13 +48,18 @@ static void conv_le32(float *dst, const char *src, size_t n, const void *ctx) {
  * few enough that a batch's rows are still in cache when added. */
 #define BATCH_BYTES ((size_t)8 << 20)
 
-/* The mapped file, no filter: batches of rows converted in place. Sets
- * *cut when the file ends inside a row, *row to the rows seen. */
-static vg_status read_mapped(vg_src *src, const char *map, size_t size, const vg_detect *d,
+/* A regular file, no filter: the file is read in windows of a batch of
+ * rows with pread (the kernel's copy from the page cache; walking a
+ * 4 KiB-page mapping costs a TLB miss per page, dear in a VM), and all
+ * threads convert the batch's rows straight into the matrix. Sets *cut
+ * when the file ends inside a row, *row to the rows seen. */
+static vg_status read_mapped(vg_src *src, size_t size, const vg_detect *d,
                              const vg_load_options *opt, vg_vectors *v, int *cut, uint64_t *row,
                              vg_error *err) {
     const char *path = vg_src_path(src);
     size_t dims = d->dims, rb = dims * sizeof(float);
+    /* A row starting in the first BATCH_BYTES of a window ends inside it. */
+    size_t wcap = BATCH_BYTES + rb + VG_MAX_WORD + 2;
     vg_batch b;
     memset(&b, 0, sizeof b);
     b.v = v;
@@ -63,17 +69,33 @@ static vg_status read_mapped(vg_src *src, const char *map, size_t size, const vg
     b.threads = vg_threads_resolve(opt->threads);
     b.cap = BATCH_BYTES / (rb + 2) + 1;
     b.rows = vg_calloc(b.cap, sizeof *b.rows);
-    if (!b.rows) return vg_error_set(err, VG_ENOMEM, path, 0, "out of memory");
+    char *win = vg_bigbuf_alloc(wcap + VG_SRC_PAD);
+    if (!b.rows || !win) {
+        vg_free(b.rows);
+        vg_bigbuf_release(win, wcap + VG_SRC_PAD);
+        return vg_error_set(err, VG_ENOMEM, path, 0, "out of memory");
+    }
     vg_status st = vg_src_start(src, 0, 0, err);
-    size_t pos = d->header_bytes;
+    size_t pos = d->header_bytes, wpos = 0, wlen = 0;
     uint64_t n = 0;
     vg_error late;      /* a structural error, reported after the rows before it */
     vg_status late_st = VG_OK;
     while (st == VG_OK) {
         if (opt->max_words && n >= opt->max_words) break;
         if (pos >= size) break;
-        if (b.n == 0) vg_src_willneed(src, pos, BATCH_BYTES + BATCH_BYTES / 8);
-        const char *p = map + pos;
+        if (b.n == 0 || pos - wpos >= BATCH_BYTES) {
+            if (b.n) {
+                st = vg_batch_run(&b, err);
+                if (st == VG_OK) st = vg_src_advance(src, pos, err);
+                if (st != VG_OK) break;
+            }
+            wpos = pos;
+            wlen = VG_MIN(size - pos, wcap);
+            st = vg_src_pread(src, win, wlen, wpos, err);
+            if (st != VG_OK) break;
+            memset(win + wlen, 0, VG_SRC_PAD);
+        }
+        const char *p = win + (pos - wpos);
         size_t left = size - pos;
         size_t look = VG_MIN(left, (size_t)VG_MAX_WORD + 1);
         const char *sp = memchr(p, ' ', look);
@@ -89,29 +111,24 @@ static vg_status read_mapped(vg_src *src, const char *map, size_t size, const vg
                                    (unsigned long long)n + 1, pos, (unsigned)VG_MAX_WORD);
             break;
         }
-        size_t wlen = (size_t)(sp - p);
-        if (wlen == 0) {
+        size_t wl = (size_t)(sp - p);
+        if (wl == 0) {
             late_st = vg_error_set(&late, VG_EFORMAT, path, 0, "row %llu (byte %zu): empty word",
                                    (unsigned long long)n + 1, pos);
             break;
         }
-        if (left - wlen - 1 < rb) {
+        if (left - wl - 1 < rb) {
             *cut = 1;
             n++;
             break;
         }
         vg_batch_row *r = &b.rows[b.n++];
         r->word = p;
-        r->wlen = wlen;
+        r->wlen = wl;
         r->src = sp + 1;
         r->file_row = n++;
-        pos += wlen + 1 + rb;
-        /* Finding the next row waits on this row's last byte, a miss in
-         * the cache every time: fetch a few rows ahead (rows differ only
-         * by their words, so the guess lands on or next to the line). */
-        __builtin_prefetch(map + pos + 4 * (rb + wlen + 2));
-        __builtin_prefetch(map + pos + 4 * (rb + wlen + 2) + 64);
-        if (pos < size && map[pos] == '\n') pos++;
+        pos += wl + 1 + rb;
+        if (pos < size && win[pos - wpos] == '\n') pos++;
         if (b.n == b.cap) {
             st = vg_batch_run(&b, err);
             if (st == VG_OK) st = vg_src_advance(src, pos, err);
@@ -123,6 +140,7 @@ static vg_status read_mapped(vg_src *src, const char *map, size_t size, const vg
         st = late_st;
     }
     vg_free(b.rows);
+    vg_bigbuf_release(win, wcap + VG_SRC_PAD);
     *row = n;
     return st;
 }
@@ -151,7 +169,7 @@ vg_status vg_read_binary(vg_src *src, const vg_detect *d, const vg_load_options 
     const char *map = vg_src_mapping(src, &map_n);
 #if !(defined(__BYTE_ORDER__) && __BYTE_ORDER__ == __ORDER_BIG_ENDIAN__)
     if (map && !v->keep_active) {
-        st = read_mapped(src, map, map_n, d, opt, v, &cut, &row, err);
+        st = read_mapped(src, map_n, d, opt, v, &cut, &row, err);
         if (st != VG_OK) goto done;
         goto counts;
     }

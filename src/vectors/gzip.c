@@ -39,7 +39,7 @@ static int refill(vg_src *s) {
             return -1;
         }
         vg_src_hash_bytes(s, s->inbuf, (size_t)n);
-        s->stored += (uint64_t)n;
+        s->raw_read += (uint64_t)n;
         s->in_next = s->inbuf;
         s->in_left = (size_t)n;
         return n > 0;
@@ -49,7 +49,7 @@ static int refill(vg_src *s) {
 /* Stored bytes consumed so far (for hashing and progress). */
 static uint64_t raw_pos(const vg_src *s) {
     if (s->map) return (uint64_t)((const char *)s->in_next - s->map) - s->z.avail_in;
-    return s->stored;
+    return s->raw_read;
 }
 
 vg_status vg_stream_init(vg_src *s, vg_error *err) {
@@ -60,10 +60,11 @@ vg_status vg_stream_init(vg_src *s, vg_error *err) {
         return vg_error_set(err, VG_ENOMEM, s->path, 0, "out of memory for read buffers");
     s->nbufs = NBUFS;
     for (int i = 0; i < NBUFS; i++) {
-        s->bufs[i].cap = s->chunk;
-        s->bufs[i].p = vg_malloc(s->chunk + VG_SRC_PAD);
-        if (!s->bufs[i].p)
+        /* Huge pages: the parsers walk every byte of every buffer. */
+        if (vg_bigbuf_reserve(&s->bufs[i].mem, s->chunk + VG_SRC_PAD) != 0)
             return vg_error_set(err, VG_ENOMEM, s->path, 0, "out of memory for read buffers");
+        s->bufs[i].cap = s->chunk;
+        s->bufs[i].p = s->bufs[i].mem.p;
     }
     if (s->map) {
         s->in_next = (const unsigned char *)s->map;
@@ -82,7 +83,7 @@ vg_status vg_stream_init(vg_src *s, vg_error *err) {
             if (n == 0) break;
             vg_src_hash_bytes(s, s->inbuf + have, (size_t)n);
             have += (size_t)n;
-            s->stored += (uint64_t)n;
+            s->raw_read += (uint64_t)n;
         }
         s->in_next = s->inbuf;
         s->in_left = have;
@@ -148,7 +149,7 @@ static int fill(vg_src *s, vg_sbuf *b) {
                 break;
             }
             vg_src_hash_bytes(s, b->p + b->len, (size_t)n);
-            s->stored += (uint64_t)n;
+            s->raw_read += (uint64_t)n;
             b->len += (size_t)n;
             continue;
         }
@@ -246,12 +247,11 @@ static int cut_lines(vg_src *s, vg_sbuf *b) {
         }
         scanned = b->len;
         size_t ncap = VG_MIN(b->cap * 2, LINE_LIMIT);
-        char *np = vg_realloc(b->p, ncap + VG_SRC_PAD);
-        if (!np) {
+        if (vg_bigbuf_reserve(&b->mem, ncap + VG_SRC_PAD) != 0) {
             set_perr(s, VG_ENOMEM, "%s", "out of memory for a long line");
             return -1;
         }
-        b->p = np;
+        b->p = b->mem.p;
         b->cap = ncap;
         if (fill(s, b) != 0) return -1;
     }
@@ -282,12 +282,11 @@ static void *producer(void *arg) {
             b->len = 0;
             if (s->carry_len > b->cap) {
                 /* A grown buffer's carry: grow this one too. */
-                char *np = vg_realloc(b->p, s->carry_len + VG_SRC_PAD);
-                if (!np) {
+                if (vg_bigbuf_reserve(&b->mem, s->carry_len + VG_SRC_PAD) != 0) {
                     set_perr(s, VG_ENOMEM, "%s", "out of memory for a long line");
                     bad = 1;
                 } else {
-                    b->p = np;
+                    b->p = b->mem.p;
                     b->cap = s->carry_len;
                 }
             }
@@ -381,7 +380,7 @@ void vg_stream_stop(vg_src *s) {
         inflateEnd(&s->z);
         s->z_init = 0;
     }
-    for (int i = 0; s->bufs && i < s->nbufs; i++) vg_free(s->bufs[i].p);
+    for (int i = 0; s->bufs && i < s->nbufs; i++) vg_bigbuf_free(&s->bufs[i].mem);
     vg_free(s->bufs);
     vg_free(s->queue);
     vg_free(s->freel);
@@ -403,6 +402,6 @@ vg_status vg_stream_drain(vg_src *s, vg_error *err) {
         if (n < 0) return vg_error_set(err, VG_EIO, s->path, 0, "read failed: %s", strerror(errno));
         if (n == 0) return VG_OK;
         vg_src_hash_bytes(s, buf, (size_t)n);
-        s->stored += (uint64_t)n;
+        s->raw_read += (uint64_t)n;
     }
 }

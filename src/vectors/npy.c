@@ -19,7 +19,6 @@
  */
 #include <math.h>
 #include <string.h>
-#include <sys/mman.h>
 
 #include "../common/alloc.h"
 #include "../common/bigbuf.h"
@@ -231,10 +230,23 @@ static void conv_npy(float *dst, const char *src, size_t n, const void *ctx) {
     convert(dst, src, n, ctx);
 }
 
+typedef struct fill_ctx {
+    vg_src *src;
+    uint64_t data_offset;
+    size_t rb;
+} fill_ctx;
+
+/* pread a run of native float32 rows straight into the matrix. */
+static vg_status fill_rows(void *ctx, uint64_t first, size_t n, float *dst, vg_error *err) {
+    const fill_ctx *f = ctx;
+    return vg_src_pread(f->src, dst, n * f->rb, f->data_offset + first * f->rb, err);
+}
+
 /* ---- reading --------------------------------------------------------- */
 
 /* Row-major data from a mapped file, no filter: batches converted in
- * place by all threads (batch.c). */
+ * place by all threads (batch.c); native float32 rows are read straight
+ * into the matrix with pread (fill) instead of through the mapping. */
 static vg_status read_c_mapped(vg_src *src, const char *data, const vg_npy_header *h,
                                const vg_vocab *vc, size_t rows, const vg_load_options *opt,
                                vg_vectors *v, const char *path, int in_place, vg_error *err) {
@@ -244,8 +256,13 @@ static vg_status read_c_mapped(vg_src *src, const char *data, const vg_npy_heade
     b.v = v;
     b.path = path;
     b.opt = opt;
-    b.conv = in_place ? NULL : conv_npy;
+    b.conv = conv_npy;
     b.conv_ctx = h;
+    fill_ctx fc = {src, h->data_offset, rb};
+    if (in_place) {
+        b.fill = fill_rows;
+        b.fill_ctx = &fc;
+    }
     b.conv_note = " (or beyond float32's range)";
     b.threads = vg_threads_resolve(opt->threads);
     b.cap = ((size_t)8 << 20) / rb + 1;
@@ -480,17 +497,9 @@ vg_status vg_read_npy(vg_src *src, const vg_load_options *opt, vg_vectors **out,
 #else
                                   0;
 #endif
-    if (!h.fortran && mapped && !v->keep_active && native && !opt->copy_matrix &&
-        (uintptr_t)(mapped + h.data_offset) % 64 == 0 && rows > 0) {
-        /* The stored rows are the matrix: validate them in place. */
-        size_t span;
-        void *base = vg_src_take_mapping(src, &span);
-        if (base) {
-            vg_vecbuild_adopt(v, base, span, (float *)(uintptr_t)(mapped + h.data_offset), rows);
-            st = read_c_mapped(src, mapped + h.data_offset, &h, &vc, rows, opt, v, path, 1, err);
-        } else {
-            st = read_c_mapped(src, mapped + h.data_offset, &h, &vc, rows, opt, v, path, 0, err);
-        }
+    if (!h.fortran && mapped && !v->keep_active && native && rows > 0) {
+        /* The stored rows are the matrix's bytes: read them into place. */
+        st = read_c_mapped(src, mapped + h.data_offset, &h, &vc, rows, opt, v, path, 1, err);
     } else if (!h.fortran && mapped && !v->keep_active) {
         st = read_c_mapped(src, mapped + h.data_offset, &h, &vc, rows, opt, v, path, 0, err);
     } else if (!h.fortran || rows == 0) {

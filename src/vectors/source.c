@@ -37,6 +37,7 @@ static vg_src *src_new(const char *path, int hash, vg_error *err) {
         return NULL;
     }
     s->fd = -1;
+    s->map_fd = -1;
     s->peek_buf = -1;
     s->path = vg_strdup(path);
     s->hash = hash;
@@ -105,12 +106,13 @@ vg_status vg_src_open(const char *path, int hash, vg_progress_fn progress, void 
         st = vg_error_set(err, VG_EINVAL, path, 0, "is a directory, expected a vector file");
     } else if (S_ISREG(sb.st_mode)) {
         s->stored = (uint64_t)sb.st_size;
+        s->size_known = 1;
         if (sb.st_size > 0) {
             st = map_file(s, fd, (size_t)sb.st_size, err);
         } else {
             s->map = zero_pad;
         }
-        close(fd);
+        s->map_fd = fd;
         fd = -1;
         if (st == VG_OK) {
             s->gzip = is_gzip_magic(s->map, s->map_size);
@@ -145,6 +147,7 @@ vg_status vg_src_open_buffer(const void *data, size_t n, const char *name, int h
     s->map = s->copy.p;
     s->map_size = n;
     s->stored = n;
+    s->size_known = 1;
     s->gzip = is_gzip_magic(s->map, n);
     s->kind = s->gzip ? SRC_STREAM : SRC_MAP;
     vg_status st = s->kind == SRC_STREAM ? vg_stream_init(s, err) : VG_OK;
@@ -158,12 +161,12 @@ vg_status vg_src_open_buffer(const void *data, size_t n, const char *name, int h
 
 const char *vg_src_path(const vg_src *s) { return s->path; }
 int vg_src_gzip(const vg_src *s) { return s->gzip; }
-uint64_t vg_src_stored_bytes(const vg_src *s) { return s->stored; }
+uint64_t vg_src_stored_bytes(const vg_src *s) { return s->size_known ? s->stored : s->raw_read; }
 
 uint64_t vg_src_stream_bound(const vg_src *s) {
-    if (!s->map) return 0;
-    if (!s->gzip) return s->map_size;
-    return s->map_size > UINT64_MAX / 1032 ? UINT64_MAX : (uint64_t)s->map_size * 1032;
+    if (!s->size_known) return 0;
+    if (!s->gzip) return s->stored;
+    return s->stored > UINT64_MAX / 1032 ? UINT64_MAX : s->stored * 1032;
 }
 
 const char *vg_src_mapping(const vg_src *s, size_t *n) {
@@ -198,7 +201,7 @@ vg_status vg_src_peek(vg_src *s, const char **p, size_t *n, int *whole, vg_error
  * matrix. Anonymous copies (vg_src_open_buffer) must not be dropped: that
  * would zero them. Call under s->lock when the hasher runs. */
 static void drop_behind(vg_src *s) {
-    if (!s->map_base || s->taken) return;
+    if (!s->map_base) return;
     uint64_t upto = s->sha ? VG_MIN(s->hashed, s->advanced) : s->advanced;
     uint64_t pg = upto & ~(uint64_t)(page_size() - 1);
     if (pg > s->dropped) {
@@ -209,6 +212,7 @@ static void drop_behind(vg_src *s) {
 
 static void *hasher(void *arg) {
     vg_src *s = arg;
+    char *buf = s->map_fd >= 0 ? vg_bigbuf_alloc(HASH_PIECE) : NULL;
     pthread_mutex_lock(&s->lock);
     while (s->hashed < s->map_size) {
         while (!s->hasher_stop && s->hashed >= s->advanced + HASH_LEAD)
@@ -217,13 +221,21 @@ static void *hasher(void *arg) {
         uint64_t at = s->hashed;
         size_t n = (size_t)VG_MIN((uint64_t)HASH_PIECE, s->map_size - at);
         pthread_mutex_unlock(&s->lock);
-        vg_sha256_update(s->sha, s->map + at, n);
+        /* From the file by pread into a buffer of our own (huge pages)
+         * when there is one: faster than through the 4 KiB-page mapping. */
+        vg_error ignored;
+        if (!buf || vg_src_pread(s, buf, n, at, &ignored) != VG_OK) {
+            vg_sha256_update(s->sha, s->map + at, n);
+        } else {
+            vg_sha256_update(s->sha, buf, n);
+        }
         pthread_mutex_lock(&s->lock);
         s->hashed = at + n;
         drop_behind(s);
         pthread_cond_broadcast(&s->cv_hash);
     }
     pthread_mutex_unlock(&s->lock);
+    vg_bigbuf_release(buf, HASH_PIECE);
     return NULL;
 }
 
@@ -246,6 +258,25 @@ vg_status vg_src_start(vg_src *s, int lines, size_t chunk_bytes, vg_error *err) 
     s->started = 1;
     s->lines = lines;
     if (chunk_bytes) s->chunk = chunk_bytes;
+    if (s->kind == SRC_MAP && lines && s->map_fd >= 0) {
+        /* Text: read() the file into the producer's huge-page buffers
+         * rather than walk the mapping, whose 4 KiB pages cost a TLB miss
+         * (and a fault every few pages) each; the producer hashes what it
+         * reads, as for a pipe. The mapping was only for detection. */
+        if (lseek(s->map_fd, 0, SEEK_SET) == 0) {
+            munmap(s->map_base, s->map_span);
+            s->map_base = NULL;
+            s->map = NULL;
+            s->map_size = 0;
+            s->fd = s->map_fd;
+            s->map_fd = -1;
+            s->kind = SRC_STREAM;
+            s->peeked = 0;
+            vg_status st = vg_stream_init(s, err);
+            if (st == VG_OK) st = vg_stream_start(s, err);
+            return st;
+        }
+    }
     if (s->sha && s->map && s->map_size >= HASH_THREAD_MIN &&
         pthread_create(&s->hasher, NULL, hasher, s) == 0)
         s->hasher_running = 1; /* else the readers hash as they go */
@@ -298,22 +329,32 @@ static vg_status report(vg_src *s, uint64_t done, int force, vg_error *err) {
     if (!s->progress) return VG_OK;
     if (!force && done - s->progress_last < PROGRESS_STEP) return VG_OK;
     s->progress_last = done;
-    uint64_t total = s->fd >= 0 ? 0 : s->stored;
+    uint64_t total = s->size_known ? s->stored : 0;
     if (s->progress(s->progress_ctx, done, total) != 0)
         return vg_error_set(err, VG_EINTERRUPTED, s->path, 0, "stopped while reading");
     return VG_OK;
 }
 
-void *vg_src_take_mapping(vg_src *s, size_t *span) {
-    if (s->kind != SRC_MAP || !s->map_base || vg_alloc_hook_fails()) return NULL;
-    /* Private: writes (closing a gap between rows) copy a page, never
-     * reach the file. */
-    if (mprotect(s->map_base, s->map_span, PROT_READ | PROT_WRITE) != 0) return NULL;
-    pthread_mutex_lock(&s->lock);
-    s->taken = 1;
-    pthread_mutex_unlock(&s->lock);
-    *span = s->map_span;
-    return s->map_base;
+vg_status vg_src_pread(vg_src *s, void *dst, size_t n, uint64_t offset, vg_error *err) {
+    if (offset > s->map_size || n > s->map_size - offset)
+        return vg_error_set(err, VG_EINTERNAL, s->path, 0, "read past the end of the file");
+    if (s->map_fd < 0) {
+        memcpy(dst, s->map + offset, n);
+        return VG_OK;
+    }
+    char *d = dst;
+    while (n > 0) {
+        ssize_t r = pread(s->map_fd, d, VG_MIN(n, (size_t)1 << 30), (off_t)offset);
+        if (r < 0 && errno == EINTR) continue;
+        if (r <= 0)
+            return vg_error_set(err, r < 0 ? VG_EIO : VG_ETRUNCATED, s->path, 0,
+                                "read failed at byte %llu: %s", (unsigned long long)offset,
+                                r < 0 ? strerror(errno) : "the file shrank while being read");
+        d += r;
+        n -= (size_t)r;
+        offset += (uint64_t)r;
+    }
+    return VG_OK;
 }
 
 void vg_src_willneed(vg_src *s, uint64_t offset, size_t n) {
@@ -373,7 +414,7 @@ vg_status vg_src_finish(vg_src *s, vg_error *err) {
     } else if (s->fd >= 0) {
         st = vg_stream_drain(s, err);
     }
-    if (st == VG_OK) st = report(s, s->map ? s->map_size : s->stored, 1, err);
+    if (st == VG_OK) st = report(s, vg_src_stored_bytes(s), 1, err);
     if (st == VG_OK && s->sha) {
         vg_sha256_final(s->sha, s->hex);
         s->sha = NULL;
@@ -387,9 +428,10 @@ void vg_src_close(vg_src *s) {
     if (!s) return;
     if (s->kind == SRC_STREAM) vg_stream_stop(s);
     hasher_join(s, 0);
-    if (s->map_base && !s->taken) munmap(s->map_base, s->map_span);
+    if (s->map_base) munmap(s->map_base, s->map_span);
     vg_bigbuf_free(&s->copy);
     if (s->fd >= 0) close(s->fd);
+    if (s->map_fd >= 0) close(s->map_fd);
     vg_sha256_free(s->sha);
     pthread_mutex_destroy(&s->lock);
     pthread_cond_destroy(&s->cv_free);

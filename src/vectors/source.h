@@ -135,13 +135,12 @@ VG_INTERNAL const char *vg_src_mapping(const vg_src *s, size_t *n);
  * pages, and the cache prefetcher can then run ahead. A hint only. */
 VG_INTERNAL void vg_src_willneed(vg_src *s, uint64_t offset, size_t n);
 
-/* Hand the file's mapping over to the caller (a reader that uses the
- * stored bytes as they are), made writable (privately: writes never reach
- * the file): from now on no page is dropped and closing the source does
- * not unmap it; the caller munmap()s *base, *span bytes. The mapping stays
- * valid, and vg_src_finish still hashes it. NULL (nothing changed) when
- * the source is not a mapped file or it cannot be made writable. */
-VG_INTERNAL void *vg_src_take_mapping(vg_src *s, size_t *span);
+/* Copy n stored bytes at offset of a mapped source into dst with pread
+ * (the kernel copies from the page cache through its own large pages,
+ * several times faster than touching a 4 KiB-page mapping in a VM).
+ * Thread-safe. Does not hash or report progress: vg_src_advance does. */
+VG_INTERNAL vg_status vg_src_pread(vg_src *s, void *dst, size_t n, uint64_t offset,
+                                   vg_error *err);
 
 /* Mark the mapped stream done up to offset: hash, drop pages, progress. */
 VG_INTERNAL vg_status vg_src_advance(vg_src *s, uint64_t offset, vg_error *err);

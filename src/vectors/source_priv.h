@@ -19,7 +19,8 @@
 enum { SRC_MAP = 1, SRC_STREAM = 2 };
 
 typedef struct vg_sbuf {
-    char *p;            /* cap + VG_SRC_PAD bytes */
+    vg_bigbuf mem;
+    char *p;            /* == mem.p: cap + VG_SRC_PAD bytes */
     size_t cap, len;
     uint64_t raw_end;
 } vg_sbuf;
@@ -28,7 +29,8 @@ struct vg_src {
     char *path;
     int kind;           /* SRC_MAP or SRC_STREAM */
     int gzip;
-    int fd;             /* -1 when not needed */
+    int fd;             /* a pipe being read; -1 when not needed */
+    int map_fd;         /* the mapped regular file, for vg_src_pread; or -1 */
 
     /* The mapped bytes: the whole file (SRC_MAP), or the compressed file
      * (SRC_STREAM from a regular gzip file); NULL when reading a pipe. */
@@ -37,7 +39,9 @@ struct vg_src {
     void *map_base;     /* munmap(map_base, map_span) */
     size_t map_span;
     vg_bigbuf copy;     /* vg_src_open_buffer's padded copy */
-    uint64_t stored;    /* stored bytes (size, or read so far for a pipe) */
+    uint64_t stored;    /* the regular file's size */
+    int size_known;     /* a regular file (or buffer): stored is its size */
+    uint64_t raw_read;  /* bytes read so far by the producer (read() input) */
 
     /* SHA-256 of the stored bytes: in order, in vg_src_release for
      * mappings, in the producer for pipes. */
@@ -46,7 +50,6 @@ struct vg_src {
     char hex[65];
     uint64_t hashed;    /* stored bytes hashed (mappings) */
     uint64_t dropped;   /* mapped bytes whose pages were given back */
-    int taken;          /* the mapping became a reader's (no dropping, no unmap) */
     /* A mapped file of some size is hashed by its own thread, running
      * beside the readers over the same mapped bytes, a bounded distance
      * from them (under lock; cv_hash signals progress either way). */

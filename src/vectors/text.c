@@ -548,15 +548,15 @@ vg_status vg_read_text(vg_src *src, const vg_detect *d, const vg_load_options *o
         if (err->path[0] == '\0') snprintf(err->path, sizeof err->path, "%s", path);
         return st;
     }
+    /* A small file is one or two chunks: threads would only wait. */
+    unsigned nt = vg_threads_resolve(opt->threads);
+    if (!vg_src_gzip(src) && stream_max && stream_max < ((uint64_t)8 << 20)) nt = 1;
     st = vg_src_start(src, 1, 0, err);
     if (st != VG_OK) {
         vg_vectors_free(v);
         return st;
     }
 
-    unsigned nt = vg_threads_resolve(opt->threads);
-    size_t map_n = 0;
-    if (vg_src_mapping(src, &map_n) && map_n < ((size_t)8 << 20)) nt = 1;
     tpipe tp;
     memset(&tp, 0, sizeof tp);
     tp.src = src;

@@ -7,8 +7,6 @@
 #include <pthread.h>
 #include <stdlib.h>
 #include <string.h>
-#include <sys/mman.h>
-
 #ifdef __SSE2__
 #include <emmintrin.h>
 #endif
@@ -107,7 +105,6 @@ int vg_all_finite(const float *x, size_t n) {
  * memory when written. */
 static int reserve_matrix(vg_vectors *v, size_t need) {
     if (need <= v->cap_rows) return 0;
-    if (v->file_map) return -1; /* a file's rows cannot grow */
     size_t ncap = v->cap_rows ? v->cap_rows : 1024;
     while (ncap < need)
         if (vg_mul_overflow(ncap, 2, &ncap)) return -1;
@@ -123,14 +120,6 @@ static int reserve_matrix(vg_vectors *v, size_t need) {
 int vg_vecbuild_reserve(vg_vectors *v, size_t rows) { return reserve_matrix(v, rows); }
 
 size_t vg_vecbuild_test_reserve;
-
-void vg_vecbuild_adopt(vg_vectors *v, void *base, size_t span, float *data, size_t cap_rows) {
-    vg_bigbuf_free(&v->mat);
-    v->file_map = base;
-    v->file_span = span;
-    v->data = data;
-    v->cap_rows = cap_rows;
-}
 
 /* Room for need rows in the per-row arrays (words, lengths, norms). */
 static int reserve_meta(vg_vectors *v, size_t need) {
@@ -365,10 +354,8 @@ vg_status vg_vecbuild_finish(vg_vectors *v, vg_error *err) {
     for (size_t i = 0; i < v->rows; i++) zero += v->norms[i] == 0;
     /* Give back the address space (and any touched pages) past the last
      * row; the matrix keeps its place, so pointers stay valid. */
-    if (!v->file_map) {
-        vg_bigbuf_shrink(&v->mat, v->rows * v->ld * sizeof(float));
-        v->data = v->mat.p;
-    }
+    vg_bigbuf_shrink(&v->mat, v->rows * v->ld * sizeof(float));
+    v->data = v->mat.p;
     vg_bigbuf_shrink(&v->meta_words, v->rows * sizeof *v->words);
     vg_bigbuf_shrink(&v->meta_lens, v->rows * sizeof *v->word_lens);
     vg_bigbuf_shrink(&v->meta_norms, v->rows * sizeof *v->norms);
@@ -378,7 +365,7 @@ vg_status vg_vecbuild_finish(vg_vectors *v, vg_error *err) {
     v->cap_meta = VG_MIN(VG_MIN(v->meta_words.reserved / sizeof *v->words,
                                 v->meta_lens.reserved / sizeof *v->word_lens),
                          VG_MIN(v->meta_norms.reserved / sizeof *v->norms, v->cap_meta));
-    if (!v->file_map) v->cap_rows = v->mat.reserved / (v->ld * sizeof(float));
+    v->cap_rows = v->mat.reserved / (v->ld * sizeof(float));
     v->info.rows = v->rows;
     v->info.zero_rows = zero;
     v->info.dims = v->dims;
@@ -422,7 +409,6 @@ vg_status vg_vectors_from_matrix(const char *const *words, size_t rows, const fl
 void vg_vectors_free(vg_vectors *v) {
     if (!v) return;
     vg_bigbuf_free(&v->mat);
-    if (v->file_map) munmap(v->file_map, v->file_span);
     vg_bigbuf_free(&v->meta_words);
     vg_bigbuf_free(&v->meta_lens);
     vg_bigbuf_free(&v->meta_norms);

@@ -37,8 +37,6 @@ struct vg_vectors {
     size_t rows, dims, ld;
     float *data;            /* == mat.p: rows x ld, page (so 64-byte) aligned */
     vg_bigbuf mat;          /* the matrix's address space, grown by mremap */
-    void *file_map;         /* or: the input file's private mapping holds it */
-    size_t file_span;
     size_t cap_rows;        /* rows that fit in mat */
     float *norms;           /* rows (NAN: computed by vg_vecbuild_finish) */
     const char **words;     /* rows pointers into arena, NUL-terminated */
@@ -101,14 +99,6 @@ VG_INTERNAL vg_status vg_vecbuild_add(vg_vectors *v, const vg_rowkey *k, float n
  * no other thread may be writing rows). For readers that write values
  * in place before offering the rows. 0, or -1 when out of memory. */
 VG_INTERNAL int vg_vecbuild_reserve(vg_vectors *v, size_t rows);
-/* Use rows stored in a file's private mapping (base, span bytes, owned
- * from now on) as the matrix: data (64-byte aligned) holds cap_rows rows
- * of dims floats in file order. Rows are then added as by the batch path
- * (vg_batch with conv NULL) and only moved to close a gap. Call right
- * after vg_vecbuild_begin. */
-VG_INTERNAL void vg_vecbuild_adopt(vg_vectors *v, void *base, size_t span, float *data,
-                                   size_t cap_rows);
-
 /* Tests only: when non-zero, the rows reserved for an input of unknown
  * size (a pipe), so that the growth paths run on small inputs. */
 VG_INTERNAL extern size_t vg_vecbuild_test_reserve;
@@ -171,11 +161,20 @@ typedef struct vg_batch_row {
     unsigned char bad, keyfail;
 } vg_batch_row;
 
+/* Most threads one batch is split between. */
+#define VG_BATCH_SHARES 16
+
 typedef struct vg_batch {
     vg_vectors *v;          /* no row filter */
     const char *path;
     const vg_load_options *opt;
     vg_convert_fn conv;     /* NULL: the values are in place already */
+    /* Or: put rows [first, first + n) of the file in place (each thread
+     * its share, before checking them); 0 or an error code (fill_err). */
+    vg_status (*fill)(void *ctx, uint64_t first, size_t n, float *dst, vg_error *err);
+    void *fill_ctx;
+    vg_status fill_st[VG_BATCH_SHARES]; /* per thread share */
+    vg_error fill_err[VG_BATCH_SHARES];
     const void *conv_ctx;
     const char *where;      /* text before "word" in messages, or NULL */
     const char *conv_note;  /* text after "not finite", or NULL */
