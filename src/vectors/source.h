@@ -3,11 +3,15 @@
  *
  * A source delivers the (decompressed) bytes of a file as a sequence of
  * chunks that readers may parse on several threads at once:
- *  - a regular uncompressed file is memory-mapped; chunks are slices of
- *    the mapping, so nothing is copied;
+ *  - a regular uncompressed file is memory-mapped (for detection, and for
+ *    readers that find rows by position); raw chunks are slices of the
+ *    mapping, and vg_src_pread copies stored bytes out of the page cache;
+ *  - in lines mode (text) a regular file is instead read() by a producer
+ *    thread into a ring of huge-page buffers: in a VM, walking a mapping's
+ *    4 KiB pages costs more than the kernel's copy;
  *  - a gzip file (known by its magic bytes, never by its name) is inflated
- *    by a producer thread into a ring of buffers while the readers parse
- *    the previous ones; pipes are read the same way.
+ *    by the producer thread while the readers parse the previous buffers;
+ *    pipes are read the same way.
  * In lines mode every chunk but the last ends just after a '\n', so rows
  * never straddle chunks. Readers release chunks in order; releasing one
  * feeds the stored bytes it completes to SHA-256 (one pass over the bytes:
