@@ -49,7 +49,11 @@ vg_status vg_batch_run(vg_batch *b, vg_error *err) {
     vg_status st = VG_OK;
     if (b->n == 0) return VG_OK;
     /* Rows go to their file position: make room (nothing else runs). */
-    if (vg_vecbuild_reserve(v, (size_t)b->rows[b->n - 1].file_row + 1) != 0) {
+    size_t need = (size_t)b->rows[b->n - 1].file_row + 1;
+    /* Growing may move the matrix, whose rows may still be queued for
+     * hashing. */
+    if (need > v->cap_rows && b->hash_src) vg_src_hash_wait_upto(b->hash_src, vg_src_hash_submitted(b->hash_src));
+    if (vg_vecbuild_reserve(v, need) != 0) {
         b->n = 0;
         return vg_error_set(err, VG_ENOMEM, b->path, 0, "out of memory for the matrix");
     }
@@ -66,6 +70,12 @@ vg_status vg_batch_run(vg_batch *b, vg_error *err) {
             return st;
         }
     }
+    /* The rows as read are the stored bytes: hash them before any row
+     * moves. */
+    if (b->hash_src && b->fill)
+        vg_src_hash_submit(b->hash_src, v->data + b->rows[0].file_row * v->ld,
+                           b->n * v->dims * sizeof(float));
+    int waited = 0;
     for (size_t i = 0; i < b->n && st == VG_OK; i++) {
         if (i + PREFETCH_AHEAD < b->n && !b->rows[i + PREFETCH_AHEAD].keyfail)
             vg_strmap_prefetch(&v->index, b->rows[i + PREFETCH_AHEAD].key.hash);
@@ -93,7 +103,13 @@ vg_status vg_batch_run(vg_batch *b, vg_error *err) {
         st = vg_vecbuild_add(v, &r->key, r->norm, &dst, b->path, 0, err);
         if (st == VG_OK && dst) {
             const float *src = v->data + r->file_row * v->ld;
-            if (dst != src) memcpy(dst, src, v->dims * sizeof(float));
+            if (dst != src) {
+                if (b->hash_src && !waited) {
+                    vg_src_hash_wait_upto(b->hash_src, vg_src_hash_submitted(b->hash_src));
+                    waited = 1;
+                }
+                memcpy(dst, src, v->dims * sizeof(float));
+            }
         }
     }
     for (size_t i = 0; i < b->n; i++)

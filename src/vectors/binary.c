@@ -69,13 +69,21 @@ static vg_status read_mapped(vg_src *src, size_t size, const vg_detect *d,
     b.threads = vg_threads_resolve(opt->threads);
     b.cap = BATCH_BYTES / (rb + 2) + 1;
     b.rows = vg_calloc(b.cap, sizeof *b.rows);
-    char *win = vg_bigbuf_alloc(wcap + VG_SRC_PAD);
-    if (!b.rows || !win) {
+    /* Two windows: the hashing thread hashes one while the next fills. */
+    char *wins[2] = {vg_bigbuf_alloc(wcap + VG_SRC_PAD), vg_bigbuf_alloc(wcap + VG_SRC_PAD)};
+    uint64_t wend[2] = {0, 0};
+    int wx = 1;
+    char *win = wins[0];
+    if (!b.rows || !wins[0] || !wins[1]) {
         vg_free(b.rows);
-        vg_bigbuf_release(win, wcap + VG_SRC_PAD);
+        vg_bigbuf_release(wins[0], wcap + VG_SRC_PAD);
+        vg_bigbuf_release(wins[1], wcap + VG_SRC_PAD);
         return vg_error_set(err, VG_ENOMEM, path, 0, "out of memory");
     }
+    vg_src_hash_by_submit(src);
     vg_status st = vg_src_start(src, 0, 0, err);
+    size_t map_n;
+    vg_src_hash_submit(src, vg_src_mapping(src, &map_n), d->header_bytes); /* the header line */
     size_t pos = d->header_bytes, wpos = 0, wlen = 0;
     uint64_t n = 0;
     vg_error late;      /* a structural error, reported after the rows before it */
@@ -85,10 +93,16 @@ static vg_status read_mapped(vg_src *src, size_t size, const vg_detect *d,
         if (pos >= size) break;
         if (b.n == 0 || pos - wpos >= BATCH_BYTES) {
             if (b.n) {
+                vg_src_hash_submit(src, win, pos - wpos);
+                wend[wx] = pos;
                 st = vg_batch_run(&b, err);
                 if (st == VG_OK) st = vg_src_advance(src, pos, err);
                 if (st != VG_OK) break;
             }
+            /* The other window, once the hash is past what it held. */
+            wx ^= 1;
+            win = wins[wx];
+            vg_src_hash_wait_upto(src, wend[wx]);
             wpos = pos;
             wlen = VG_MIN(size - pos, wcap);
             st = vg_src_pread(src, win, wlen, wpos, err);
@@ -130,17 +144,26 @@ static vg_status read_mapped(vg_src *src, size_t size, const vg_detect *d,
         pos += wl + 1 + rb;
         if (pos < size && win[pos - wpos] == '\n') pos++;
         if (b.n == b.cap) {
+            vg_src_hash_submit(src, win, pos - wpos);
+            wend[wx] = pos;
+            wpos = pos;
             st = vg_batch_run(&b, err);
             if (st == VG_OK) st = vg_src_advance(src, pos, err);
         }
     }
-    if (st == VG_OK) st = vg_batch_run(&b, err);
+    if (st == VG_OK && b.n) {
+        vg_src_hash_submit(src, win, pos - wpos);
+        st = vg_batch_run(&b, err);
+    }
+    /* The windows go: the hash must be done with them. */
+    vg_src_hash_wait_upto(src, vg_src_hash_submitted(src));
     if (st == VG_OK && late_st != VG_OK) {
         *err = late;
         st = late_st;
     }
     vg_free(b.rows);
-    vg_bigbuf_release(win, wcap + VG_SRC_PAD);
+    vg_bigbuf_release(wins[0], wcap + VG_SRC_PAD);
+    vg_bigbuf_release(wins[1], wcap + VG_SRC_PAD);
     *row = n;
     return st;
 }

@@ -262,6 +262,8 @@ static vg_status read_c_mapped(vg_src *src, const char *data, const vg_npy_heade
     if (in_place) {
         b.fill = fill_rows;
         b.fill_ctx = &fc;
+        b.hash_src = src;
+        vg_src_hash_by_submit(src);
     }
     b.conv_note = " (or beyond float32's range)";
     b.threads = vg_threads_resolve(opt->threads);
@@ -269,8 +271,9 @@ static vg_status read_c_mapped(vg_src *src, const char *data, const vg_npy_heade
     b.rows = vg_calloc(b.cap, sizeof *b.rows);
     if (!b.rows) return vg_error_set(err, VG_ENOMEM, path, 0, "out of memory");
     vg_status st = vg_src_start(src, 0, 0, err);
+    if (in_place) vg_src_hash_submit(src, data - h->data_offset, h->data_offset); /* the header */
     for (size_t i = 0; i < rows && st == VG_OK; i++) {
-        if (b.n == 0) vg_src_willneed(src, h->data_offset + (uint64_t)i * rb, b.cap * rb);
+        if (b.n == 0 && !in_place) vg_src_willneed(src, h->data_offset + (uint64_t)i * rb, b.cap * rb);
         vg_batch_row *r = &b.rows[b.n++];
         r->word = vc->words[i];
         r->wlen = vc->lens[i];
@@ -281,6 +284,7 @@ static vg_status read_c_mapped(vg_src *src, const char *data, const vg_npy_heade
             if (st == VG_OK) st = vg_src_advance(src, h->data_offset + (uint64_t)(i + 1) * rb, err);
         }
     }
+    if (in_place) vg_src_hash_wait_upto(src, vg_src_hash_submitted(src));
     vg_free(b.rows);
     return st;
 }

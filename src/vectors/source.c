@@ -16,11 +16,12 @@
 
 /* Report progress at most every this many stored bytes. */
 #define PROGRESS_STEP ((uint64_t)16 << 20)
-/* The hashing thread: files from this size get one; it hashes pieces of
+/* The hashing thread: files from vg_src_hash_thread_min bytes get one
+ * (tests lower it); it hashes pieces of
  * HASH_PIECE bytes, runs at most HASH_LEAD ahead of the readers, and the
  * readers wait when they get HASH_LAG ahead of it (the pages between the
  * two stay resident, so the lag bounds the memory they cost). */
-#define HASH_THREAD_MIN ((size_t)16 << 20)
+size_t vg_src_hash_thread_min = (size_t)16 << 20;
 #define HASH_PIECE ((size_t)4 << 20)
 #define HASH_LEAD ((uint64_t)32 << 20)
 #define HASH_LAG ((uint64_t)64 << 20)
@@ -212,8 +213,29 @@ static void drop_behind(vg_src *s) {
 
 static void *hasher(void *arg) {
     vg_src *s = arg;
-    char *buf = s->map_fd >= 0 ? vg_bigbuf_alloc(HASH_PIECE) : NULL;
     pthread_mutex_lock(&s->lock);
+    if (s->hash_submit) {
+        for (;;) {
+            while (!s->hasher_stop && !s->hash_finishing && s->hq_count == 0)
+                pthread_cond_wait(&s->cv_hash, &s->lock);
+            if (s->hasher_stop || s->hq_count == 0) break;
+            const char *p = s->hq_p[s->hq_head];
+            size_t n = s->hq_n[s->hq_head];
+            pthread_mutex_unlock(&s->lock);
+            vg_sha256_update(s->sha, p, n);
+            pthread_mutex_lock(&s->lock);
+            s->hashed += n;
+            s->hq_head = (s->hq_head + 1) % 8;
+            s->hq_count--;
+            drop_behind(s);
+            pthread_cond_broadcast(&s->cv_hash);
+        }
+        pthread_mutex_unlock(&s->lock);
+        return NULL;
+    }
+    /* Mapping mode: hash the mapped file (the bytes the readers walk, or
+     * the compressed bytes the producer inflates) a bounded distance
+     * ahead of the readers. */
     while (s->hashed < s->map_size) {
         while (!s->hasher_stop && s->hashed >= s->advanced + HASH_LEAD)
             pthread_cond_wait(&s->cv_hash, &s->lock);
@@ -221,29 +243,55 @@ static void *hasher(void *arg) {
         uint64_t at = s->hashed;
         size_t n = (size_t)VG_MIN((uint64_t)HASH_PIECE, s->map_size - at);
         pthread_mutex_unlock(&s->lock);
-        /* From the file by pread into a buffer of our own (huge pages)
-         * when there is one: faster than through the 4 KiB-page mapping. */
-        vg_error ignored;
-        if (!buf || vg_src_pread(s, buf, n, at, &ignored) != VG_OK) {
-            vg_sha256_update(s->sha, s->map + at, n);
-        } else {
-            vg_sha256_update(s->sha, buf, n);
-        }
+        vg_sha256_update(s->sha, s->map + at, n);
         pthread_mutex_lock(&s->lock);
         s->hashed = at + n;
         drop_behind(s);
         pthread_cond_broadcast(&s->cv_hash);
     }
     pthread_mutex_unlock(&s->lock);
-    vg_bigbuf_release(buf, HASH_PIECE);
     return NULL;
 }
+
+void vg_src_hash_by_submit(vg_src *s) {
+    VG_ASSERT(!s->started);
+    if (s->sha && s->kind == SRC_MAP) s->hash_submit = 1;
+}
+
+void vg_src_hash_submit(vg_src *s, const void *p, size_t n) {
+    if (!s->sha || !s->hash_submit || n == 0) return;
+    if (!s->hasher_running) {
+        vg_sha256_update(s->sha, p, n);
+        s->hashed += n;
+        s->hash_off += n;
+        return;
+    }
+    pthread_mutex_lock(&s->lock);
+    while (s->hq_count == 8) pthread_cond_wait(&s->cv_hash, &s->lock);
+    int slot = (s->hq_head + s->hq_count) % 8;
+    s->hq_p[slot] = p;
+    s->hq_n[slot] = n;
+    s->hq_count++;
+    s->hash_off += n;
+    pthread_cond_broadcast(&s->cv_hash);
+    pthread_mutex_unlock(&s->lock);
+}
+
+void vg_src_hash_wait_upto(vg_src *s, uint64_t offset) {
+    if (!s->hasher_running || !s->hash_submit) return;
+    pthread_mutex_lock(&s->lock);
+    while (s->hashed < offset && s->hashed < s->hash_off) pthread_cond_wait(&s->cv_hash, &s->lock);
+    pthread_mutex_unlock(&s->lock);
+}
+
+uint64_t vg_src_hash_submitted(const vg_src *s) { return s->hash_off; }
 
 static void hasher_join(vg_src *s, int to_the_end) {
     if (!s->hasher_running) return;
     pthread_mutex_lock(&s->lock);
     if (to_the_end) {
         s->advanced = s->map_size;
+        s->hash_finishing = 1;
     } else {
         s->hasher_stop = 1;
     }
@@ -277,7 +325,7 @@ vg_status vg_src_start(vg_src *s, int lines, size_t chunk_bytes, vg_error *err) 
             return st;
         }
     }
-    if (s->sha && s->map && s->map_size >= HASH_THREAD_MIN &&
+    if (s->sha && s->map && s->map_size >= vg_src_hash_thread_min &&
         pthread_create(&s->hasher, NULL, hasher, s) == 0)
         s->hasher_running = 1; /* else the readers hash as they go */
     if (s->kind == SRC_MAP) {
@@ -378,12 +426,13 @@ vg_status vg_src_advance(vg_src *s, uint64_t offset, vg_error *err) {
         pthread_mutex_lock(&s->lock);
         if (offset > s->advanced) s->advanced = offset;
         pthread_cond_broadcast(&s->cv_hash);
-        while (s->advanced > s->hashed + HASH_LAG) pthread_cond_wait(&s->cv_hash, &s->lock);
+        while (!s->hash_submit && s->advanced > s->hashed + HASH_LAG)
+            pthread_cond_wait(&s->cv_hash, &s->lock);
         drop_behind(s);
         pthread_mutex_unlock(&s->lock);
         return report(s, offset, 0, err);
     }
-    if (offset > s->hashed && s->sha) {
+    if (offset > s->hashed && s->sha && !s->hash_submit) {
         vg_src_hash_bytes(s, s->map + s->hashed, (size_t)(offset - s->hashed));
         s->hashed = offset;
     }
@@ -409,6 +458,14 @@ vg_status vg_src_finish(vg_src *s, vg_error *err) {
     vg_status st = VG_OK;
     if (s->kind == SRC_STREAM) vg_stream_stop(s);
     hasher_join(s, 1);
+    if (s->hash_submit && s->sha && s->map) {
+        /* What no reader handed over (a header, trailing bytes, rows
+         * after --max-words): straight from the mapping, in order. */
+        VG_ASSERT(s->hashed == s->hash_off);
+        if (s->map_size > s->hashed)
+            vg_sha256_update(s->sha, s->map + s->hashed, (size_t)(s->map_size - s->hashed));
+        s->hashed = s->hash_off = s->map_size;
+    }
     if (s->map) {
         st = vg_src_advance(s, s->map_size, err);
     } else if (s->fd >= 0) {

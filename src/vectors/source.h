@@ -99,6 +99,10 @@ VG_INTERNAL const char *vg_src_sha256(const vg_src *s);
 /* Stop any producer thread, unmap, free. NULL does nothing. */
 VG_INTERNAL void vg_src_close(vg_src *s);
 
+/* Files from this size are hashed by a thread of their own (default
+ * 16 MiB; tests set it low to run that path on small files). */
+VG_INTERNAL extern size_t vg_src_hash_thread_min;
+
 /* ---- sequential reading across chunks (binary, npy, vocabularies) ---- */
 
 typedef struct vg_seq {
@@ -145,6 +149,20 @@ VG_INTERNAL void vg_src_willneed(vg_src *s, uint64_t offset, size_t n);
  * Thread-safe. Does not hash or report progress: vg_src_advance does. */
 VG_INTERNAL vg_status vg_src_pread(vg_src *s, void *dst, size_t n, uint64_t offset,
                                    vg_error *err);
+
+/* For a reader of a mapped file that reads the stored bytes itself (by
+ * pread): call before vg_src_start; the file is then hashed from the
+ * bytes the reader hands over with vg_src_hash_submit, in file order, by
+ * the hashing thread beside it (one pass over the bytes). */
+VG_INTERNAL void vg_src_hash_by_submit(vg_src *s);
+/* The next n stored bytes (those from the end of the last submission),
+ * as read into p; p must stay untouched until vg_src_hash_wait_upto
+ * passes its end. Waits while the hashing thread's queue is full. */
+VG_INTERNAL void vg_src_hash_submit(vg_src *s, const void *p, size_t n);
+/* Wait until the stored bytes before offset are hashed. */
+VG_INTERNAL void vg_src_hash_wait_upto(vg_src *s, uint64_t offset);
+/* The stored bytes submitted so far. */
+VG_INTERNAL uint64_t vg_src_hash_submitted(const vg_src *s);
 
 /* Mark the mapped stream done up to offset: hash, drop pages, progress. */
 VG_INTERNAL vg_status vg_src_advance(vg_src *s, uint64_t offset, vg_error *err);

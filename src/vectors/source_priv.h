@@ -57,6 +57,13 @@ struct vg_src {
     int hasher_running, hasher_stop;
     uint64_t advanced;  /* the readers are done up to here */
     pthread_cond_t cv_hash;
+    /* Submit mode (vg_src_hash_by_submit): the hasher hashes the regions
+     * a reader hands it, the very bytes the reader read, in file order. */
+    int hash_submit, hash_finishing;
+    const char *hq_p[8];
+    size_t hq_n[8];
+    int hq_head, hq_count;
+    uint64_t hash_off;  /* stored bytes submitted so far */
 
     vg_progress_fn progress;
     void *progress_ctx;

@@ -173,6 +173,7 @@ typedef struct vg_batch {
      * its share, before checking them); 0 or an error code (fill_err). */
     vg_status (*fill)(void *ctx, uint64_t first, size_t n, float *dst, vg_error *err);
     void *fill_ctx;
+    vg_src *hash_src;       /* fill mode: submit the rows read for hashing */
     vg_status fill_st[VG_BATCH_SHARES]; /* per thread share */
     vg_error fill_err[VG_BATCH_SHARES];
     const void *conv_ctx;

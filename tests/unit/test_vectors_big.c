@@ -16,6 +16,7 @@
 #include <sys/wait.h>
 #include <zlib.h>
 
+#include "common/sha256.h"
 #include "vectors/vectors_impl.h"
 
 static uint64_t rng_state = 77;
@@ -174,11 +175,20 @@ static void test_round_trips(void **state) {
         char path[4096];
         snprintf(path, sizeof path, "%s", temp_path(cases[c].name));
         write_set(path, cases[c].lay, cases[c].gz, ROWS);
+        /* hash-2: the digest of the bytes as read equals OpenSSL's over a
+         * plain read of the file, with the hashing thread (forced on for
+         * these small files) and without it. */
+        char want[65];
+        vg_error herr;
+        assert_vg_ok(vg_sha256_file(path, want, NULL, &herr), &herr);
         unsigned threads[] = {1, 2, 4};
         for (size_t t = 0; t < 3; t++) {
+            vg_src_hash_thread_min = t == 1 ? (size_t)-1 : 1;
             vg_vectors *v = load_threads(path, threads[t]);
+            vg_src_hash_thread_min = (size_t)16 << 20;
             assert_int_equal(vg_vectors_get_info(v)->layout, cases[c].want);
             assert_int_equal(vg_vectors_get_info(v)->gzip, cases[c].gz);
+            assert_string_equal(vg_vectors_get_info(v)->sha256, want);
             expect_exact(v, ROWS);
             vg_vectors_free(v);
         }
@@ -284,11 +294,49 @@ static void test_filter_and_max(void **state) {
         vg_load_options_init(&opt);
         opt.threads = t;
         opt.max_words = 9000;
+        vg_src_hash_thread_min = 1;
         assert_vg_ok(vg_vectors_load(path, &opt, &v, &err), &err);
+        vg_src_hash_thread_min = (size_t)16 << 20;
         expect_exact(v, 9000);
+        char want[65];
+        assert_vg_ok(vg_sha256_file(path, want, NULL, &err), &err);
+        assert_string_equal(vg_vectors_get_info(v)->sha256, want);
         vg_vectors_free(v);
     }
     unlink(path);
+}
+
+/* hash-3: the binary and npy readers under max_words (rows read by
+ * pread, the rest of the file hashed after): still the file's digest. */
+static void test_partial_hash(void **state) {
+    (void)state;
+    const wlayout lays[] = {W_BINARY, W_NPY};
+    const char *names[] = {"part.bin", "part.npy"};
+    for (size_t c = 0; c < 2; c++) {
+        char path[4096];
+        snprintf(path, sizeof path, "%s", temp_path(names[c]));
+        write_set(path, lays[c], 0, ROWS);
+        char want[65];
+        vg_error err;
+        assert_vg_ok(vg_sha256_file(path, want, NULL, &err), &err);
+        vg_load_options opt;
+        vg_load_options_init(&opt);
+        opt.max_words = 5000;
+        opt.threads = 2;
+        vg_src_hash_thread_min = 1;
+        vg_vectors *v = NULL;
+        assert_vg_ok(vg_vectors_load(path, &opt, &v, &err), &err);
+        vg_src_hash_thread_min = (size_t)16 << 20;
+        expect_exact(v, 5000);
+        assert_string_equal(vg_vectors_get_info(v)->sha256, want);
+        vg_vectors_free(v);
+        unlink(path);
+        if (lays[c] == W_NPY) {
+            char vp[4096];
+            snprintf(vp, sizeof vp, "%.*s.vocab", (int)(strlen(path) - 4), path);
+            unlink(vp);
+        }
+    }
 }
 
 /* norms-1: norms equal sqrt of the sum of squares in double (the
@@ -364,6 +412,7 @@ int main(void) {
         cmocka_unit_test(test_filter_and_max),
         cmocka_unit_test(test_norms),
         cmocka_unit_test(test_pipes),
+        cmocka_unit_test(test_partial_hash),
     };
     return cmocka_run_group_tests_name("vectors_big", tests, setup, teardown);
 }
