@@ -59,8 +59,10 @@ $(shell mkdir -p $(BUILD)/gen; \
 # ---- the library, by the stage the data flows through --------------------
 COMMON_O  = common/error.o common/alloc.o common/arena.o common/strmap.o \
             common/text.o common/lines.o common/sha256.o common/threads.o \
-            common/numfmt.o common/version.o common/csvread.o
-VECTORS_O = vectors/vectors.o vectors/load.o vectors/text.o
+            common/numfmt.o common/version.o common/csvread.o common/bigbuf.o
+VECTORS_O = vectors/vectors.o vectors/load.o vectors/detect.o vectors/source.o \
+            vectors/gzip.o vectors/fastfloat.o vectors/text.o vectors/binary.o \
+            vectors/npy.o vectors/vocab.o vectors/batch.o
 SUITES_O  = suites/suite.o suites/fields.o suites/pairs.o suites/analogies.o \
             suites/relation.o suites/split.o suites/groups.o suites/manifest.o \
             suites/datadir.o gen/manifest_csv.o
@@ -75,7 +77,8 @@ REPORT_O  = report/csvout.o report/summary_md.o report/summary_similarity.o \
             report/summary_analogy.o report/text_table.o report/rundir.o report/intervals.o \
             report/items_csv.o report/latex.o report/run_json.o report/run_record.o
 CLI_O     = cli/main.o cli/util.o cli/signals.o cli/run_output.o cli/cmd_score.o \
-            cli/cmd_rerun.o cli/cmd_suites.o cli/cmd_fetch.o
+            cli/cmd_rerun.o cli/cmd_suites.o cli/cmd_fetch.o cli/cmd_inspect.o \
+            cli/loadopts.o cli/progress.o
 
 LIB_O = $(addprefix $(BUILD)/obj/,$(COMMON_O) $(VECTORS_O) $(SUITES_O) $(FETCH_O) \
           $(SCORE_O) $(STATS_O) $(EVAL_O) $(REPORT_O))

@@ -41,9 +41,11 @@ VG_API const char *vg_layout_name(vg_layout layout);
  * an unknown name. */
 VG_API vg_status vg_layout_parse(const char *name, vg_layout *out);
 
-/* Progress callback: called from the loading thread with the bytes done so
- * far and the total (0 when unknown, e.g. for a gzip stream). Returning
- * non-zero stops the load with VG_EINTERRUPTED. */
+/* Progress callback: called during a load, from one of its threads but
+ * never from two at once, with the bytes of the file as stored (for gzip:
+ * compressed bytes) done so far, increasing, and the file's size (0 when
+ * unknown: a pipe). Called about every 16 MB and once at the end.
+ * Returning non-zero stops the load with VG_EINTERRUPTED. */
 typedef int (*vg_progress_fn)(void *ctx, uint64_t done, uint64_t total);
 
 /* How to load. Initialise with vg_load_options_init, then change fields. */
@@ -91,16 +93,39 @@ typedef struct vg_vectors_info {
     char sha256[65];           /* lower-case hex, NUL-terminated */
     char vocab_path[VG_ERROR_PATH_MAX]; /* .npy only: the vocabulary file used */
     char vocab_sha256[65];     /* .npy only */
+    int crlf;                  /* text: some lines end in "\r\n" */
+    int bom;                   /* text: the file starts with a UTF-8 byte order mark */
+    int big_endian;            /* npy: the data are big-endian */
+    int fortran_order;         /* npy: the data are column-major */
+    int source_float64;        /* npy: the data are float64, rounded to float32 */
 } vg_vectors_info;
 
 typedef struct vg_vectors vg_vectors;
 
-/* Load the vector set in path. On success *out owns a new vg_vectors that
- * the caller frees with vg_vectors_free. On failure returns the status,
- * fills *err (path and line of the offending input) and sets *out to NULL.
- * opt may be NULL for the defaults. */
+/* Load the vector set in path: any layout of vg_layout, gzip-compressed
+ * or not (known by its magic bytes), a regular file or a pipe. The layout
+ * is detected unless opt->layout forces one; info says which and why.
+ * On success *out owns a new vg_vectors that the caller frees with
+ * vg_vectors_free. On failure returns the status (VG_EIO cannot open or
+ * read, VG_EFORMAT not the layout expected, VG_EVALUE a bad value,
+ * VG_ETRUNCATED fewer or more rows than a header promises, VG_ELIMIT a
+ * size over a documented limit, VG_EUNSUPPORTED e.g. an npy dtype,
+ * VG_ENOTFOUND no npy vocabulary, VG_ENOMEM, VG_EINTERRUPTED), fills *err
+ * (path, and line or row of the offending input) and sets *out to NULL.
+ * The file is read once: its sha256 is computed from the same bytes.
+ * opt may be NULL for the defaults. Thread-safe (uses opt->threads
+ * threads of its own). */
 VG_API vg_status vg_vectors_load(const char *path, const vg_load_options *opt,
                                  vg_vectors **out, vg_error *err);
+
+/* As vg_vectors_load, on size bytes in memory (any layout, gzip or not;
+ * the bytes are copied once). name stands for the path in error messages
+ * and in the info; an .npy buffer takes its vocabulary from
+ * opt->vocab_path, or from beside name. Also the entry point for fuzzing
+ * the readers. */
+VG_API vg_status vg_vectors_load_buffer(const void *data, size_t size, const char *name,
+                                        const vg_load_options *opt, vg_vectors **out,
+                                        vg_error *err);
 
 /* Build a vector set from memory, for programs that evaluate in-process.
  * words[i] is the NUL-terminated word of row i; data is rows x dims

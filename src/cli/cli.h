@@ -52,6 +52,45 @@ char *vg_cli_command_line(int argc, char **argv);
  * directory-friendly stamp ("20261202T100000Z"). */
 void vg_cli_utc_now(char iso[32], char stamp[32]);
 
+/* Progress of a load on standard error, drawn only when it is a terminal
+ * (and enabled): pass vg_cli_progress_fn and the record as the load
+ * options' progress callback and context. */
+typedef struct vg_cli_progress {
+    const char *label;
+    int enabled, drawn;
+    double t0, last;
+} vg_cli_progress;
+void vg_cli_progress_begin(vg_cli_progress *p, const char *label, int enabled);
+int vg_cli_progress_fn(void *ctx, uint64_t done, uint64_t total);
+/* Erase the progress line. */
+void vg_cli_progress_end(vg_cli_progress *p);
+
+/* Options of the commands that read vector files (getopt_long ids; a
+ * command's own options use ids below 512). */
+enum {
+    VG_OPT_FORMAT = 512,
+    VG_OPT_VOCAB,
+    VG_OPT_MAX_WORDS,
+    VG_OPT_ALLOW_SHORT,
+    VG_OPT_SKIP_BAD,
+    VG_OPT_NO_HASH,
+    VG_OPT_NO_PROGRESS
+};
+#define VG_CLI_LOAD_LONG_OPTIONS                                   \
+    {"format", required_argument, NULL, VG_OPT_FORMAT},            \
+    {"vocab", required_argument, NULL, VG_OPT_VOCAB},              \
+    {"max-words", required_argument, NULL, VG_OPT_MAX_WORDS},      \
+    {"allow-short", no_argument, NULL, VG_OPT_ALLOW_SHORT},        \
+    {"skip-bad-rows", no_argument, NULL, VG_OPT_SKIP_BAD},         \
+    {"no-hash", no_argument, NULL, VG_OPT_NO_HASH},                \
+    {"no-progress", no_argument, NULL, VG_OPT_NO_PROGRESS}
+/* Their help, one "Vector files:" section. */
+extern const char vg_cli_load_help[];
+/* Apply option c (argument arg) to *lo (or *progress). Returns 1 when c
+ * is one of them, 0 when it is not, -1 after a usage error (*rc set). */
+int vg_cli_load_option(const char *command, int c, const char *arg, vg_load_options *lo,
+                       int *progress, int *rc);
+
 /* Write every file of a run directory into dir (temporary, then renamed);
  * prints the error and returns VG_EXIT_FAIL on failure. */
 int vg_cli_write_run(const char *dir, const vg_results *res, const vg_provenance *prov);
@@ -70,5 +109,6 @@ int vg_cmd_score(int argc, char **argv);
 int vg_cmd_rerun(int argc, char **argv);
 int vg_cmd_suites(int argc, char **argv);
 int vg_cmd_fetch(int argc, char **argv);
+int vg_cmd_inspect(int argc, char **argv);
 
 #endif /* VG_CLI_H */

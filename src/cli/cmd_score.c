@@ -44,6 +44,8 @@ static const char score_help[] =
     "      --keep-question-words  let a, b and c of a question be its answer\n"
     "  -j, --threads N        threads (default: one per CPU)\n"
     "\n"
+    "%s"
+    "\n"
     "  -h, --help             show this help and exit\n"
     "\n"
     "Writes scores.csv, intervals.csv, agreement.csv, items.csv, missing.csv,\n"
@@ -69,6 +71,8 @@ typedef struct score_args {
     const char *out;
     vg_eval_options eval;
     char data_used[VG_ERROR_PATH_MAX]; /* the data directory read, "" if none */
+    vg_load_options load;
+    int progress;
 } score_args;
 
 enum { OPT_FOLD = 256, OPT_SEED, OPT_BOOT, OPT_DATA, OPT_MANIFEST, OPT_CI, OPT_ANALOGY_VOCAB,
@@ -89,6 +93,7 @@ static const struct option long_opts[] = {
     {"keep-question-words", no_argument, NULL, OPT_KEEP_QWORDS},
     {"threads", required_argument, NULL, 'j'},
     {"help", no_argument, NULL, 'h'},
+    VG_CLI_LOAD_LONG_OPTIONS,
     {NULL, 0, NULL, 0}};
 
 /* Every word of the suites (pairs' words; questions' a, b, c and every
@@ -268,12 +273,17 @@ int vg_cmd_score(int argc, char **argv) {
     score_args a;
     memset(&a, 0, sizeof a);
     vg_eval_options_init(&a.eval);
+    vg_load_options_init(&a.load);
+    a.progress = 1;
     int rc = VG_EXIT_FAIL;
     optind = 1;
     opterr = 0;
     int c;
     uint64_t u;
     while ((c = getopt_long(argc, argv, ":s:p:a:o:j:h", long_opts, NULL)) != -1) {
+        int handled = vg_cli_load_option("score", c, optarg, &a.load, &a.progress, &rc);
+        if (handled < 0) goto done;
+        if (handled) continue;
         switch (c) {
         case 's':
         case 'p':
@@ -332,7 +342,8 @@ int vg_cmd_score(int argc, char **argv) {
             break;
         case 'h':
             printf(score_help, (unsigned)VG_DEFAULT_SEED, (unsigned)VG_DEFAULT_BOOTSTRAP,
-                   VG_DEFAULT_CI, (unsigned)VG_DEFAULT_ANALOGY_VOCAB);
+                   VG_DEFAULT_CI, (unsigned)VG_DEFAULT_ANALOGY_VOCAB,
+                   vg_cli_load_help);
             rc = VG_EXIT_OK;
             goto done;
         case ':':
@@ -390,8 +401,7 @@ int vg_cmd_score(int argc, char **argv) {
     int has_analogy = 0;
     for (size_t k = 0; k < n_suites; k++) has_analogy |= suites[k]->task == VG_TASK_ANALOGY;
     for (int i = 0; i < n_sets; i++) {
-        vg_load_options lo;
-        vg_load_options_init(&lo);
+        vg_load_options lo = a.load;
         lo.threads = a.eval.score.threads;
         lo.fold_case = a.eval.score.fold_case;
         lo.keep_words = words;
@@ -403,7 +413,13 @@ int vg_cmd_score(int argc, char **argv) {
             lo.keep_first = a.eval.score.analogy_vocab;
             if (lo.keep_first == 0) lo.keep_words = NULL;
         }
-        if (vg_vectors_load(paths[i], &lo, &vecs[i], &err) != VG_OK) {
+        vg_cli_progress pr;
+        vg_cli_progress_begin(&pr, labels[i], a.progress);
+        lo.progress = vg_cli_progress_fn;
+        lo.progress_ctx = &pr;
+        vg_status lst = vg_vectors_load(paths[i], &lo, &vecs[i], &err);
+        vg_cli_progress_end(&pr);
+        if (lst != VG_OK) {
             vg_cli_error(&err);
             goto cleanup;
         }

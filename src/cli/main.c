@@ -16,6 +16,7 @@ static int cmd_help(int argc, char **argv);
 
 static const command commands[] = {
     {"score", vg_cmd_score, "score vector sets on suites and write a run directory"},
+    {"inspect", vg_cmd_inspect, "read vector files and report their layout, size and quirks"},
     {"suites", vg_cmd_suites, "list the known suites and which are in the data directory"},
     {"fetch", vg_cmd_fetch, "download public suites into the data directory"},
     {"rerun", vg_cmd_rerun, "re-run a saved run directory after checking its inputs"},

@@ -23,6 +23,8 @@ static int should_fail(void) {
     return 0;
 }
 
+int vg_alloc_hook_fails(void) { return should_fail(); }
+
 void *vg_malloc(size_t n) {
     if (should_fail()) return NULL;
     return malloc(n ? n : 1);

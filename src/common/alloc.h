@@ -38,6 +38,9 @@ static inline int vg_add_overflow(size_t a, size_t b, size_t *out) {
 /* Test hook: after n more successful allocations, every allocation fails
  * until called again. n < 0 turns failures off (the default). */
 VG_INTERNAL void vg_alloc_fail_after(long n);
+/* For allocators outside this file (mmap-backed buffers): counts one
+ * allocation and returns 1 when the hook says it must fail. */
+VG_INTERNAL int vg_alloc_hook_fails(void);
 /* Allocations made since the process started (for tests). */
 VG_INTERNAL unsigned long vg_alloc_count(void);
 

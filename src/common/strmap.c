@@ -6,6 +6,29 @@
 #include <string.h>
 
 #include "alloc.h"
+#include "bigbuf.h"
+
+/* Tables of a megabyte or more live in their own mapping, with huge
+ * pages: a vocabulary index of millions of words is touched at random,
+ * and with 4 KiB pages its first touch alone costs more than the inserts.
+ * The size alone says which allocator holds a table. */
+#define BIG_TABLE ((size_t)1 << 20)
+
+static vg_strmap_slot *slots_alloc(size_t cap) {
+    size_t bytes;
+    if (vg_mul_overflow(cap, sizeof(vg_strmap_slot), &bytes)) return NULL;
+    if (bytes >= BIG_TABLE) return vg_bigbuf_alloc(bytes);
+    return vg_calloc(cap, sizeof(vg_strmap_slot));
+}
+
+static void slots_free(vg_strmap_slot *s, size_t cap) {
+    size_t bytes = cap * sizeof(vg_strmap_slot);
+    if (bytes >= BIG_TABLE) {
+        vg_bigbuf_release(s, bytes);
+    } else {
+        vg_free(s);
+    }
+}
 
 /* A multiply-xorshift hash over 8-byte words (the mixing constants are
  * those of splitmix64, Steele, Lea and Flood 2014). Words in vocabularies
@@ -32,16 +55,19 @@ uint64_t vg_hash_bytes(const void *p, size_t n) {
 }
 
 static int rehash(vg_strmap *m, size_t ncap) {
-    vg_strmap_slot *ns = vg_calloc(ncap, sizeof *ns);
+    vg_strmap_slot *ns = slots_alloc(ncap);
     if (!ns) return -1;
     for (size_t i = 0; i < m->cap; i++) {
         vg_strmap_slot *o = &m->slots[i];
         if (!o->key) continue;
-        size_t j = vg_hash_bytes(o->key, o->len) & (ncap - 1);
+        /* hash32 holds the hash's low 32 bits, all the index needs below
+         * 2^32 slots: no key is hashed again. */
+        uint64_t h = ncap <= ((uint64_t)1 << 32) ? o->hash32 : vg_hash_bytes(o->key, o->len);
+        size_t j = h & (ncap - 1);
         while (ns[j].key) j = (j + 1) & (ncap - 1);
         ns[j] = *o;
     }
-    vg_free(m->slots);
+    if (m->slots) slots_free(m->slots, m->cap);
     m->slots = ns;
     m->cap = ncap;
     return 0;
@@ -57,12 +83,16 @@ int vg_strmap_reserve(vg_strmap *m, size_t n) {
 }
 
 int vg_strmap_put(vg_strmap *m, const char *key, size_t len, size_t value, size_t *existing) {
+    return vg_strmap_put_hashed(m, key, len, vg_hash_bytes(key, len), value, existing);
+}
+
+int vg_strmap_put_hashed(vg_strmap *m, const char *key, size_t len, uint64_t h, size_t value,
+                         size_t *existing) {
     if (len > UINT32_MAX) return -1;
     if ((m->count + 1) * 2 > m->cap) {
         size_t ncap = m->cap ? m->cap * 2 : 16;
         if (ncap < m->cap || rehash(m, ncap) != 0) return -1;
     }
-    uint64_t h = vg_hash_bytes(key, len);
     size_t j = h & (m->cap - 1);
     for (;;) {
         vg_strmap_slot *s = &m->slots[j];
@@ -84,7 +114,11 @@ int vg_strmap_put(vg_strmap *m, const char *key, size_t len, size_t value, size_
 
 size_t vg_strmap_get(const vg_strmap *m, const char *key, size_t len) {
     if (!m->cap) return (size_t)-1;
-    uint64_t h = vg_hash_bytes(key, len);
+    return vg_strmap_get_hashed(m, key, len, vg_hash_bytes(key, len));
+}
+
+size_t vg_strmap_get_hashed(const vg_strmap *m, const char *key, size_t len, uint64_t h) {
+    if (!m->cap) return (size_t)-1;
     size_t j = h & (m->cap - 1);
     for (;;) {
         const vg_strmap_slot *s = &m->slots[j];
@@ -96,7 +130,7 @@ size_t vg_strmap_get(const vg_strmap *m, const char *key, size_t len) {
 }
 
 void vg_strmap_free(vg_strmap *m) {
-    vg_free(m->slots);
+    if (m->slots) slots_free(m->slots, m->cap);
     m->slots = NULL;
     m->cap = m->count = 0;
 }

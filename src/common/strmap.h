@@ -44,6 +44,19 @@ VG_INTERNAL int vg_strmap_put(vg_strmap *m, const char *key, size_t len, size_t 
 /* Value of key, or (size_t)-1 if absent. */
 VG_INTERNAL size_t vg_strmap_get(const vg_strmap *m, const char *key, size_t len);
 
+/* As vg_strmap_put and vg_strmap_get with the key's vg_hash_bytes
+ * already computed (so that it can be computed on another thread). */
+VG_INTERNAL int vg_strmap_put_hashed(vg_strmap *m, const char *key, size_t len, uint64_t hash,
+                                     size_t value, size_t *existing);
+VG_INTERNAL size_t vg_strmap_get_hashed(const vg_strmap *m, const char *key, size_t len,
+                                        uint64_t hash);
+
 VG_INTERNAL void vg_strmap_free(vg_strmap *m);
+
+/* Hint that a lookup of a key with this hash comes soon: callers that
+ * know the next keys ahead (a batch of rows) hide the cache miss. */
+static inline void vg_strmap_prefetch(const vg_strmap *m, uint64_t hash) {
+    if (m->cap) __builtin_prefetch(&m->slots[hash & (m->cap - 1)]);
+}
 
 #endif /* VG_STRMAP_H */

@@ -1,11 +1,52 @@
-/* load.c - vg_vectors_load: choose the reader for a file's layout.
+/* load.c - vg_vectors_load: open the file, detect its layout, run the
+ * reader, record what was seen.
  * Part of vecgauge; MIT licence, see LICENSE.
  */
 #include <string.h>
-#include <sys/stat.h>
 
-#include "../common/sha256.h"
 #include "vectors_impl.h"
+
+static vg_status load_from(vg_src *src, const vg_load_options *opt, vg_vectors **out,
+                           vg_error *err) {
+    const char *path = vg_src_path(src);
+    if ((unsigned)opt->layout > (unsigned)VG_LAYOUT_NPY)
+        return vg_error_set(err, VG_EINVAL, path, 0, "unknown layout %d", (int)opt->layout);
+    const char *p;
+    size_t n;
+    int whole;
+    vg_status st = vg_src_peek(src, &p, &n, &whole, err);
+    if (st != VG_OK) return st;
+    vg_detect d;
+    st = vg_detect_layout(p, n, whole, opt->layout, path, &d, err);
+    if (st != VG_OK) return st;
+    vg_vectors *v = NULL;
+    switch (d.layout) {
+    case VG_LAYOUT_TEXT_HEADER:
+    case VG_LAYOUT_TEXT_PLAIN: st = vg_read_text(src, &d, opt, &v, err); break;
+    case VG_LAYOUT_BINARY: st = vg_read_binary(src, &d, opt, &v, err); break;
+    case VG_LAYOUT_NPY: st = vg_read_npy(src, opt, &v, err); break;
+    default: st = vg_error_set(err, VG_EINTERNAL, path, 0, "no reader for the detected layout");
+    }
+    if (st == VG_OK) st = vg_src_finish(src, err);
+    if (st != VG_OK) {
+        vg_vectors_free(v);
+        return st;
+    }
+    vg_vectors_info *info = &v->info;
+    info->layout = d.layout;
+    info->gzip = vg_src_gzip(src);
+    info->bom = d.bom;
+    if (d.layout != VG_LAYOUT_NPY) info->header_rows = d.header_rows;
+    snprintf(info->detected_because, sizeof info->detected_because, "%s%s",
+             info->gzip ? "gzip data (magic bytes 1f 8b), inside: " : "", d.because);
+    info->bytes = vg_src_stored_bytes(src);
+    if (opt->compute_hash) {
+        snprintf(info->sha256, sizeof info->sha256, "%s", vg_src_sha256(src));
+        info->hashed = 1;
+    }
+    *out = v;
+    return VG_OK;
+}
 
 vg_status vg_vectors_load(const char *path, const vg_load_options *opt, vg_vectors **out,
                           vg_error *err) {
@@ -15,33 +56,27 @@ vg_status vg_vectors_load(const char *path, const vg_load_options *opt, vg_vecto
         vg_load_options_init(&defaults);
         opt = &defaults;
     }
-    struct stat sb;
-    if (stat(path, &sb) != 0) return vg_error_set(err, VG_EIO, path, 0, "cannot open vector file");
-    if (S_ISDIR(sb.st_mode))
-        return vg_error_set(err, VG_EINVAL, path, 0, "is a directory, expected a vector file");
-
-    vg_status st;
-    switch (opt->layout) {
-    case VG_LAYOUT_AUTO:
-    case VG_LAYOUT_TEXT_HEADER:
-    case VG_LAYOUT_TEXT_PLAIN:
-        st = vg_read_text(path, opt, out, err);
-        break;
-    default:
-        return vg_error_set(err, VG_EUNSUPPORTED, path, 0, "layout '%s' is not supported yet",
-                            vg_layout_name(opt->layout));
-    }
+    vg_src *src = NULL;
+    vg_status st = vg_src_open(path, opt->compute_hash, opt->progress, opt->progress_ctx, &src, err);
     if (st != VG_OK) return st;
-    vg_vectors_info *info = &(*out)->info;
-    info->bytes = (uint64_t)sb.st_size;
-    if (opt->compute_hash) {
-        st = vg_sha256_file(path, info->sha256, NULL, err);
-        if (st != VG_OK) {
-            vg_vectors_free(*out);
-            *out = NULL;
-            return st;
-        }
-        info->hashed = 1;
+    st = load_from(src, opt, out, err);
+    vg_src_close(src);
+    return st;
+}
+
+vg_status vg_vectors_load_buffer(const void *data, size_t size, const char *name,
+                                 const vg_load_options *opt, vg_vectors **out, vg_error *err) {
+    *out = NULL;
+    vg_load_options defaults;
+    if (!opt) {
+        vg_load_options_init(&defaults);
+        opt = &defaults;
     }
-    return VG_OK;
+    if (!data && size) return vg_error_set(err, VG_EINVAL, name, 0, "no data");
+    vg_src *src = NULL;
+    vg_status st = vg_src_open_buffer(data ? data : "", size, name, opt->compute_hash, &src, err);
+    if (st != VG_OK) return st;
+    st = load_from(src, opt, out, err);
+    vg_src_close(src);
+    return st;
 }

@@ -4,7 +4,11 @@
  *
  * Every reader (text, binary, npy) produces rows through vg_vecbuild_*:
  * the builder owns duplicate handling (first occurrence wins), the row
- * filter, NFC-keyed indexing and the norms, so the readers only parse.
+ * filter, NFC-keyed indexing and the counts, so the readers only parse.
+ * A reader offers a row in two steps so that it can write the values
+ * straight into the matrix: vg_rowkey_make (thread-safe: normalise and
+ * hash the word, test it against the filter) and vg_vecbuild_add (in file
+ * order: decide and return where the row's values go).
  */
 #ifndef VG_VECTORS_IMPL_H
 #define VG_VECTORS_IMPL_H
@@ -14,8 +18,10 @@
 #include <stdint.h>
 
 #include "../common/arena.h"
+#include "../common/bigbuf.h"
 #include "../common/internal.h"
 #include "../common/strmap.h"
+#include "source.h"
 #include "vecgauge/vectors.h"
 
 /* The case-folded index, a cache filled on first use (under lock) even
@@ -28,11 +34,15 @@ typedef struct vg_folded_index {
 } vg_folded_index;
 
 struct vg_vectors {
-    size_t rows, dims, ld, cap_rows;
-    float *data;            /* cap_rows x ld, 64-byte aligned */
-    float *norms;           /* rows */
+    size_t rows, dims, ld;
+    float *data;            /* == mat.p: rows x ld, page (so 64-byte) aligned */
+    vg_bigbuf mat;          /* the matrix's address space, grown by mremap */
+    size_t cap_rows;        /* rows that fit in mat */
+    float *norms;           /* rows (NAN: computed by vg_vecbuild_finish) */
     const char **words;     /* rows pointers into arena, NUL-terminated */
     uint32_t *word_lens;
+    size_t cap_meta;        /* capacity of norms, words, word_lens */
+    vg_bigbuf meta_words, meta_lens, meta_norms; /* their storage (huge pages, mremap) */
     vg_arena arena;         /* words and (non-NFC) index keys */
     vg_strmap index;        /* NFC(word) -> row */
     vg_folded_index *folded;/* fold(word) -> lowest row; built on first use */
@@ -44,28 +54,187 @@ struct vg_vectors {
     int keep_active, keep_fold;
     size_t keep_first;
     size_t seen_rows;       /* rows offered to the builder (file order) */
+    int norms_pending;      /* some norms are NAN, to compute at finish */
+    unsigned threads;       /* for the work at finish */
 };
 
+/* A row's word, ready for vg_vecbuild_add. */
+typedef struct vg_rowkey {
+    const char *word;       /* the bytes as in the file (borrowed) */
+    size_t len;
+    const char *key;        /* NFC(word): word itself or owned */
+    size_t klen;
+    uint64_t hash;          /* vg_hash_bytes(key, klen) */
+    char *owned;            /* freed by vg_rowkey_clear */
+    unsigned char invalid_utf8;
+    unsigned char wanted;   /* 1: in the filter (or no filter is set) */
+} vg_rowkey;
+
 /* Start an empty set of dims columns. rows_hint (may be 0) pre-sizes the
- * matrix; a hint larger than is sensible is clamped, never trusted for a
- * huge allocation. opt (may be NULL) supplies the row filter. */
-VG_INTERNAL vg_status vg_vecbuild_begin(size_t dims, size_t rows_hint,
+ * vocabulary index; it is clamped, never trusted for a large allocation.
+ * rows_bound (0: unknown) is an upper bound on the rows the input can
+ * hold (from its size): the matrix's address space is reserved for it,
+ * which costs no memory until rows are written. opt (may be NULL)
+ * supplies the row filter and thread count. */
+VG_INTERNAL vg_status vg_vecbuild_begin(size_t dims, size_t rows_hint, size_t rows_bound,
                                         const vg_load_options *opt, vg_vectors **out,
                                         vg_error *err);
 
-/* Offer the next row of the file: word (len bytes) and dims values.
- * Duplicates (counted) and filtered rows are dropped. path and line are
- * for error messages. */
+/* Fill *k for word (len bytes): NFC key, hash, UTF-8 validity and filter
+ * membership. Reads v only, so any number of threads may call it while
+ * nothing calls vg_vecbuild_add. Returns 0, or -1 when out of memory.
+ * Free with vg_rowkey_clear. */
+VG_INTERNAL int vg_rowkey_make(const vg_vectors *v, const char *word, size_t len, vg_rowkey *k);
+VG_INTERNAL void vg_rowkey_clear(vg_rowkey *k);
+
+/* Offer the next row of the file, in file order. On VG_OK *dst is where
+ * the caller must write the row's dims values (valid until the next add:
+ * the matrix may move), or NULL when the row is dropped (duplicate or
+ * filtered; counted). norm is the row's vg_row_norm, or NAN to have finish
+ * compute it. path and line are for error messages. */
+VG_INTERNAL vg_status vg_vecbuild_add(vg_vectors *v, const vg_rowkey *k, float norm, float **dst,
+                                      const char *path, uint64_t line, vg_error *err);
+
+/* Make the matrix hold at least rows rows (address space; may move it:
+ * no other thread may be writing rows). For readers that write values
+ * in place before offering the rows. 0, or -1 when out of memory. */
+VG_INTERNAL int vg_vecbuild_reserve(vg_vectors *v, size_t rows);
+/* Tests only: when non-zero, the rows reserved for an input of unknown
+ * size (a pipe), so that the growth paths run on small inputs. */
+VG_INTERNAL extern size_t vg_vecbuild_test_reserve;
+
+/* The same for the per-row arrays (words, lengths, norms). */
+VG_INTERNAL int vg_vecbuild_reserve_meta(vg_vectors *v, size_t rows);
+
+/* vg_rowkey_make + vg_vecbuild_add + copy, for one row of values. */
 VG_INTERNAL vg_status vg_vecbuild_push(vg_vectors *v, const char *word, size_t len,
                                        const float *vals, const char *path, uint64_t line,
                                        vg_error *err);
 
-/* Compute norms and zero-row counts, shrink the matrix; the set is then
- * complete and immutable. */
+/* Compute missing norms and the zero-row count, give back unused address
+ * space; the set is then complete and immutable. */
 VG_INTERNAL vg_status vg_vecbuild_finish(vg_vectors *v, vg_error *err);
 
-/* The text-layout reader (both with and without the header line). */
-VG_INTERNAL vg_status vg_read_text(const char *path, const vg_load_options *opt,
+/* The L2 norm of x[0..n): squares summed in double in a fixed order
+ * (eight interleaved partial sums), so that every reader, thread count and
+ * build gives identical norms for identical values. */
+VG_INTERNAL float vg_row_norm(const float *x, size_t n);
+
+/* 1 if every x[i] is finite. */
+VG_INTERNAL int vg_all_finite(const float *x, size_t n);
+
+/* ---- layout detection (detect.c) ------------------------------------- */
+
+typedef struct vg_detect {
+    vg_layout layout;       /* never AUTO on success */
+    size_t dims;
+    size_t header_rows;     /* from a "count dims" line; 0 if none */
+    size_t header_bytes;    /* bytes of the header line (text-header, binary) */
+    int has_header;
+    int bom;                /* a UTF-8 byte order mark precedes everything */
+    char because[200];      /* fits vg_vectors_info.detected_because with a gzip prefix */
+} vg_detect;
+
+/* Decide the layout of a stream from its first n bytes (whole: the stream
+ * ends there). forced is the caller's --format (AUTO to detect). Fills *d
+ * or returns VG_EFORMAT naming what was expected. */
+VG_INTERNAL vg_status vg_detect_layout(const char *p, size_t n, int whole, vg_layout forced,
+                                       const char *path, vg_detect *d, vg_error *err);
+
+/* Parse a "count dims" line at p (n bytes available). Returns the bytes
+ * of the line including its '\n' (and a '\r' before it), 0 if p does not
+ * start with such a line. */
+VG_INTERNAL size_t vg_detect_count_dims(const char *p, size_t n, size_t *count, size_t *dims);
+
+/* ---- rows of fixed layouts from a mapping (batch.c) -------------------- */
+
+/* Stored values of one row to dims floats. */
+typedef void (*vg_convert_fn)(float *dst, const char *src, size_t dims, const void *ctx);
+
+typedef struct vg_batch_row {
+    const char *word;       /* borrowed (the mapping, or a vocabulary) */
+    size_t wlen;
+    const char *src;        /* the stored values */
+    uint64_t file_row;      /* 0-based: also its provisional matrix row */
+    vg_rowkey key;
+    float norm;
+    unsigned char bad, keyfail;
+} vg_batch_row;
+
+/* Most threads one batch is split between. */
+#define VG_BATCH_SHARES 16
+
+typedef struct vg_batch {
+    vg_vectors *v;          /* no row filter */
+    const char *path;
+    const vg_load_options *opt;
+    vg_convert_fn conv;     /* NULL: the values are in place already */
+    /* Or: put rows [first, first + n) of the file in place (each thread
+     * its share, before checking them); 0 or an error code (fill_err). */
+    vg_status (*fill)(void *ctx, uint64_t first, size_t n, float *dst, vg_error *err);
+    void *fill_ctx;
+    vg_src *hash_src;       /* fill mode: submit the rows read for hashing */
+    vg_status fill_st[VG_BATCH_SHARES]; /* per thread share */
+    vg_error fill_err[VG_BATCH_SHARES];
+    const void *conv_ctx;
+    const char *where;      /* text before "word" in messages, or NULL */
+    const char *conv_note;  /* text after "not finite", or NULL */
+    unsigned threads;
+    vg_batch_row *rows;
+    size_t n, cap;
+} vg_batch;
+
+/* Convert, check and key the batch's rows on all threads, straight into
+ * matrix row file_row; then add them in order (a bad row skipped and
+ * counted, or reported). Empties the batch. */
+VG_INTERNAL vg_status vg_batch_run(vg_batch *b, vg_error *err);
+
+/* ---- the readers ------------------------------------------------------ */
+
+/* Each reads the already-detected stream of src into a new vector set.
+ * On success *out is complete (vg_vecbuild_finish done). */
+VG_INTERNAL vg_status vg_read_text(vg_src *src, const vg_detect *d, const vg_load_options *opt,
                                    vg_vectors **out, vg_error *err);
+VG_INTERNAL vg_status vg_read_binary(vg_src *src, const vg_detect *d,
+                                     const vg_load_options *opt, vg_vectors **out,
+                                     vg_error *err);
+VG_INTERNAL vg_status vg_read_npy(vg_src *src, const vg_load_options *opt, vg_vectors **out,
+                                  vg_error *err);
+
+/* ---- NumPy header (npy.c) --------------------------------------------- */
+
+typedef struct vg_npy_header {
+    int major, minor;
+    size_t data_offset;     /* bytes before the array data */
+    size_t rows, dims;
+    size_t item;            /* 4 (float32) or 8 (float64) */
+    int big_endian, fortran;
+} vg_npy_header;
+
+/* Parse the NumPy header at p (n bytes available) as the NumPy format
+ * description (numpy.lib.format, versions 1.0 to 3.0) defines it. Returns
+ * VG_EFORMAT for anything else, VG_EUNSUPPORTED for valid arrays this
+ * reader does not take (not float32/float64, not two-dimensional). */
+VG_INTERNAL vg_status vg_npy_parse_header(const char *p, size_t n, const char *path,
+                                          vg_npy_header *h, vg_error *err);
+
+/* ---- vocabulary files (vocab.c) --------------------------------------- */
+
+typedef struct vg_vocab {
+    const char **words;
+    uint32_t *lens;
+    size_t n;
+    vg_arena arena;
+    char sha256[65];
+    int hashed;
+    char path[VG_ERROR_PATH_MAX];
+} vg_vocab;
+
+/* Read a vocabulary file (one word per line, gzip or not): explicit is
+ * the caller's --vocab, or NULL to look beside vectors_path (same stem,
+ * ".vocab" or ".txt"). max_words (0: all) stops early. */
+VG_INTERNAL vg_status vg_vocab_read(const char *explicit_path, const char *vectors_path,
+                                    size_t max_words, int hash, vg_vocab *vc, vg_error *err);
+VG_INTERNAL void vg_vocab_free(vg_vocab *vc);
 
 #endif /* VG_VECTORS_IMPL_H */

@@ -1,0 +1,418 @@
+/* test_vectors_big.c - files large enough for many chunks and threads:
+ * round trips (text and binary written here, read back bit for bit),
+ * results independent of the thread count, errors at the right line deep
+ * in a file, and gzip streams of every layout written with zlib.
+ * Part of vecgauge; MIT licence, see LICENSE.
+ *
+ * The reference for every value is the matrix the test itself writes:
+ * %.9g prints a float so that strtof reads back exactly that float (9 is
+ * FLT_DECIMAL_DIG, C11 5.2.4.2.2), and the binary and npy layouts hold
+ * the float's bytes.
+ */
+#include "vgtest.h"
+
+#include <signal.h>
+#include <sys/stat.h>
+#include <sys/wait.h>
+#include <zlib.h>
+
+#include "common/sha256.h"
+#include "vectors/vectors_impl.h"
+
+static uint64_t rng_state = 77;
+static uint64_t rng(void) {
+    /* splitmix64 (Steele, Lea and Flood 2014) */
+    uint64_t z = (rng_state += 0x9e3779b97f4a7c15ULL);
+    z = (z ^ (z >> 30)) * 0xbf58476d1ce4e5b9ULL;
+    z = (z ^ (z >> 27)) * 0x94d049bb133111ebULL;
+    return z ^ (z >> 31);
+}
+
+/* Rows and dims of the generated set: over 8 MB of text, so the reader
+ * splits it into several chunks and uses every thread. */
+#define ROWS 14000
+#define DIMS 64
+
+static float *matrix;
+static char (*words)[24];
+
+static int setup(void **state) {
+    (void)state;
+    matrix = malloc((size_t)ROWS * DIMS * sizeof(float));
+    words = malloc((size_t)ROWS * sizeof *words);
+    if (!matrix || !words) return -1;
+    for (size_t i = 0; i < ROWS; i++) {
+        snprintf(words[i], sizeof words[i], "w%zu_%c", i, (char)('a' + rng() % 26));
+        for (size_t j = 0; j < DIMS; j++) {
+            double x = ((double)(rng() >> 11) * 0x1p-53 - 0.5) * 2.0;
+            /* some exact zeros, some tiny and large magnitudes */
+            if (rng() % 97 == 0) x = 0;
+            if (rng() % 89 == 0) x *= 1e-30;
+            matrix[i * DIMS + j] = (float)x;
+        }
+    }
+    for (size_t j = 0; j < DIMS; j++) matrix[5 * DIMS + j] = 0; /* a zero row */
+    return 0;
+}
+
+static int teardown(void **state) {
+    (void)state;
+    free(matrix);
+    free(words);
+    return 0;
+}
+
+typedef enum { W_TEXT, W_TEXT_PLAIN, W_BINARY, W_NPY } wlayout;
+
+/* Write the set in a layout through fwrite or gzwrite. extra(i, fp)
+ * lets a test disturb row i. */
+static void write_set(const char *path, wlayout lay, int gz, size_t rows) {
+    FILE *fp = NULL;
+    gzFile g = NULL;
+    if (gz) {
+        g = gzopen(path, "wb1");
+        assert_non_null(g);
+    } else {
+        fp = fopen(path, "wb");
+        assert_non_null(fp);
+    }
+#define OUT(p, n) (gz ? (void)gzwrite(g, (p), (unsigned)(n)) : (void)fwrite((p), 1, (n), fp))
+    char line[64 * 32];
+    if (lay == W_TEXT || lay == W_BINARY) {
+        int n = snprintf(line, sizeof line, "%zu %d\n", rows, DIMS);
+        OUT(line, (size_t)n);
+    }
+    if (lay == W_NPY) {
+        char dict[128];
+        int n = snprintf(dict, sizeof dict,
+                         "{'descr': '<f4', 'fortran_order': False, 'shape': (%zu, %d), }", rows,
+                         DIMS);
+        int pad = (64 - (10 + n + 1) % 64) % 64;
+        unsigned hl = (unsigned)(n + pad + 1);
+        unsigned char pre[10] = {0x93, 'N', 'U', 'M', 'P', 'Y', 1, 0, (unsigned char)(hl & 255),
+                                 (unsigned char)(hl >> 8)};
+        OUT(pre, 10);
+        OUT(dict, (size_t)n);
+        memset(line, ' ', (size_t)pad);
+        line[pad] = '\n';
+        OUT(line, (size_t)pad + 1);
+    }
+    for (size_t i = 0; i < rows; i++) {
+        const float *r = matrix + i * DIMS;
+        if (lay == W_TEXT || lay == W_TEXT_PLAIN) {
+            size_t k = (size_t)snprintf(line, sizeof line, "%s", words[i]);
+            for (size_t j = 0; j < DIMS; j++)
+                k += (size_t)snprintf(line + k, sizeof line - k, " %.9g", (double)r[j]);
+            line[k++] = '\n';
+            OUT(line, k);
+        } else if (lay == W_BINARY) {
+            OUT(words[i], strlen(words[i]));
+            OUT(" ", 1);
+            OUT(r, DIMS * sizeof(float));
+            OUT("\n", 1);
+        } else {
+            OUT(r, DIMS * sizeof(float));
+        }
+    }
+#undef OUT
+    if (gz) {
+        assert_int_equal(gzclose(g), Z_OK);
+    } else {
+        assert_int_equal(fclose(fp), 0);
+    }
+    if (lay == W_NPY) {
+        char vp[4096];
+        size_t n = strlen(path);
+        snprintf(vp, sizeof vp, "%.*s.vocab", (int)(n - (gz ? 7 : 4)), path);
+        FILE *v = fopen(vp, "wb");
+        assert_non_null(v);
+        for (size_t i = 0; i < rows; i++) fprintf(v, "%s\n", words[i]);
+        fclose(v);
+    }
+}
+
+static vg_vectors *load_threads(const char *path, unsigned threads) {
+    vg_load_options opt;
+    vg_load_options_init(&opt);
+    opt.threads = threads;
+    vg_vectors *v = NULL;
+    vg_error err;
+    vg_error_clear(&err);
+    assert_vg_ok(vg_vectors_load(path, &opt, &v, &err), &err);
+    return v;
+}
+
+/* Every value equals the written float bit for bit, every word is in
+ * its row, the zero row is counted. */
+static void expect_exact(const vg_vectors *v, size_t rows) {
+    assert_int_equal(vg_vectors_rows(v), rows);
+    assert_int_equal(vg_vectors_dims(v), DIMS);
+    assert_memory_equal(vg_vectors_data(v), matrix, rows * DIMS * sizeof(float));
+    for (size_t i = 0; i < rows; i += 997) {
+        size_t len;
+        assert_string_equal(vg_vectors_word(v, i, &len), words[i]);
+        assert_int_equal(vg_vectors_find(v, words[i], len), i);
+    }
+    assert_int_equal(vg_vectors_get_info(v)->zero_rows, 1);
+}
+
+/* roundtrip-1: text (with and without header), binary and npy written
+ * here, plain and gzip, read back identical, on 1, 2 and 4 threads. */
+static void test_round_trips(void **state) {
+    (void)state;
+    static const struct {
+        wlayout lay;
+        int gz;
+        const char *name;
+        vg_layout want;
+    } cases[] = {
+        {W_TEXT, 0, "rt.txt", VG_LAYOUT_TEXT_HEADER},   {W_TEXT_PLAIN, 0, "rt-plain.txt", VG_LAYOUT_TEXT_PLAIN},
+        {W_BINARY, 0, "rt.bin", VG_LAYOUT_BINARY},      {W_NPY, 0, "rt.npy", VG_LAYOUT_NPY},
+        {W_TEXT, 1, "rt.txt.gz", VG_LAYOUT_TEXT_HEADER}, {W_BINARY, 1, "rt.bin.gz", VG_LAYOUT_BINARY},
+        {W_NPY, 1, "rt.npy.gz", VG_LAYOUT_NPY},
+    };
+    for (size_t c = 0; c < sizeof cases / sizeof cases[0]; c++) {
+        char path[4096];
+        snprintf(path, sizeof path, "%s", temp_path(cases[c].name));
+        write_set(path, cases[c].lay, cases[c].gz, ROWS);
+        /* hash-2: the digest of the bytes as read equals OpenSSL's over a
+         * plain read of the file, with the hashing thread (forced on for
+         * these small files) and without it. */
+        char want[65];
+        vg_error herr;
+        assert_vg_ok(vg_sha256_file(path, want, NULL, &herr), &herr);
+        unsigned threads[] = {1, 2, 4};
+        for (size_t t = 0; t < 3; t++) {
+            vg_src_hash_thread_min = t == 1 ? (size_t)-1 : 1;
+            vg_vectors *v = load_threads(path, threads[t]);
+            vg_src_hash_thread_min = (size_t)16 << 20;
+            assert_int_equal(vg_vectors_get_info(v)->layout, cases[c].want);
+            assert_int_equal(vg_vectors_get_info(v)->gzip, cases[c].gz);
+            assert_string_equal(vg_vectors_get_info(v)->sha256, want);
+            expect_exact(v, ROWS);
+            vg_vectors_free(v);
+        }
+        unlink(path);
+        if (cases[c].lay == W_NPY) {
+            char vp[4096];
+            snprintf(vp, sizeof vp, "%.*s.vocab", (int)(strlen(path) - (cases[c].gz ? 7 : 4)), path);
+            unlink(vp);
+        }
+    }
+}
+
+/* Write the text set with row `bad` (0-based) spoiled by what, and a
+ * duplicate of row 0's word at row dup (0: none). */
+static void write_text_with(const char *path, size_t bad, const char *what, size_t dup) {
+    FILE *fp = fopen(path, "wb");
+    assert_non_null(fp);
+    fprintf(fp, "%d %d\n", ROWS, DIMS);
+    for (size_t i = 0; i < ROWS; i++) {
+        fputs(dup && i == dup ? words[0] : words[i], fp);
+        for (size_t j = 0; j < DIMS; j++) {
+            if (i == bad && j == 7)
+                fprintf(fp, " %s", what);
+            else
+                fprintf(fp, " %.9g", (double)matrix[i * DIMS + j]);
+        }
+        fputc('\n', fp);
+    }
+    fclose(fp);
+}
+
+/* threads-1: a bad row deep in the file is reported at its line (row + 2:
+ * the header is line 1) whatever the threads; with skip_bad_rows the
+ * result is the same set on every thread count. Duplicates keep the
+ * first row. */
+static void test_errors_deep(void **state) {
+    (void)state;
+    char path[4096];
+    snprintf(path, sizeof path, "%s", temp_path("deep.txt"));
+    write_text_with(path, 12011, "0.5x", 9000);
+    unsigned threads[] = {1, 2, 4};
+    vg_vectors *first = NULL;
+    for (size_t t = 0; t < 3; t++) {
+        vg_load_options opt;
+        vg_load_options_init(&opt);
+        opt.threads = threads[t];
+        vg_vectors *v = (vg_vectors *)1;
+        vg_error err;
+        assert_int_equal(vg_vectors_load(path, &opt, &v, &err), VG_EVALUE);
+        assert_null(v);
+        assert_int_equal(err.line, 12011 + 2);
+        assert_int_equal(err.column, 9); /* the word, then value 8 */
+        opt.skip_bad_rows = 1;
+        assert_vg_ok(vg_vectors_load(path, &opt, &v, &err), &err);
+        const vg_vectors_info *in = vg_vectors_get_info(v);
+        assert_int_equal(in->bad_rows, 1);
+        assert_int_equal(in->duplicates, 1);
+        assert_int_equal(vg_vectors_rows(v), ROWS - 2);
+        /* row 0's word keeps row 0's values */
+        assert_memory_equal(vg_vectors_row(v, vg_vectors_find(v, words[0], strlen(words[0]))),
+                            matrix, DIMS * sizeof(float));
+        /* rows after the dropped ones moved down intact */
+        size_t r = vg_vectors_find(v, words[ROWS - 1], strlen(words[ROWS - 1]));
+        assert_int_equal(r, ROWS - 3);
+        assert_memory_equal(vg_vectors_row(v, r), matrix + (size_t)(ROWS - 1) * DIMS,
+                            DIMS * sizeof(float));
+        if (!first) {
+            first = v;
+        } else {
+            assert_memory_equal(vg_vectors_data(v), vg_vectors_data(first),
+                                vg_vectors_rows(v) * DIMS * sizeof(float));
+            assert_memory_equal(vg_vectors_norms(v), vg_vectors_norms(first),
+                                vg_vectors_rows(v) * sizeof(float));
+            vg_vectors_free(v);
+        }
+    }
+    vg_vectors_free(first);
+    unlink(path);
+}
+
+/* filter-2: keep_words keeps the rows asked for, in file order, on any
+ * number of threads; max_words stops after N rows. */
+static void test_filter_and_max(void **state) {
+    (void)state;
+    char path[4096];
+    snprintf(path, sizeof path, "%s", temp_path("filter.txt"));
+    write_set(path, W_TEXT, 0, ROWS);
+    const char *keep[] = {words[13999], words[3], words[12345], "absent"};
+    for (unsigned t = 1; t <= 4; t *= 2) {
+        vg_load_options opt;
+        vg_load_options_init(&opt);
+        opt.threads = t;
+        opt.keep_words = keep;
+        opt.n_keep_words = 4;
+        vg_vectors *v = NULL;
+        vg_error err;
+        assert_vg_ok(vg_vectors_load(path, &opt, &v, &err), &err);
+        assert_int_equal(vg_vectors_rows(v), 3);
+        assert_int_equal(vg_vectors_get_info(v)->rows_read, ROWS);
+        assert_int_equal(vg_vectors_find(v, words[3], strlen(words[3])), 0);
+        assert_memory_equal(vg_vectors_row(v, 2), matrix + (size_t)13999 * DIMS, DIMS * sizeof(float));
+        vg_vectors_free(v);
+        vg_load_options_init(&opt);
+        opt.threads = t;
+        opt.max_words = 9000;
+        vg_src_hash_thread_min = 1;
+        assert_vg_ok(vg_vectors_load(path, &opt, &v, &err), &err);
+        vg_src_hash_thread_min = (size_t)16 << 20;
+        expect_exact(v, 9000);
+        char want[65];
+        assert_vg_ok(vg_sha256_file(path, want, NULL, &err), &err);
+        assert_string_equal(vg_vectors_get_info(v)->sha256, want);
+        vg_vectors_free(v);
+    }
+    unlink(path);
+}
+
+/* hash-3: the binary and npy readers under max_words (rows read by
+ * pread, the rest of the file hashed after): still the file's digest. */
+static void test_partial_hash(void **state) {
+    (void)state;
+    const wlayout lays[] = {W_BINARY, W_NPY};
+    const char *names[] = {"part.bin", "part.npy"};
+    for (size_t c = 0; c < 2; c++) {
+        char path[4096];
+        snprintf(path, sizeof path, "%s", temp_path(names[c]));
+        write_set(path, lays[c], 0, ROWS);
+        char want[65];
+        vg_error err;
+        assert_vg_ok(vg_sha256_file(path, want, NULL, &err), &err);
+        vg_load_options opt;
+        vg_load_options_init(&opt);
+        opt.max_words = 5000;
+        opt.threads = 2;
+        vg_src_hash_thread_min = 1;
+        vg_vectors *v = NULL;
+        assert_vg_ok(vg_vectors_load(path, &opt, &v, &err), &err);
+        vg_src_hash_thread_min = (size_t)16 << 20;
+        expect_exact(v, 5000);
+        assert_string_equal(vg_vectors_get_info(v)->sha256, want);
+        vg_vectors_free(v);
+        unlink(path);
+        if (lays[c] == W_NPY) {
+            char vp[4096];
+            snprintf(vp, sizeof vp, "%.*s.vocab", (int)(strlen(path) - 4), path);
+            unlink(vp);
+        }
+    }
+}
+
+/* norms-1: norms equal sqrt of the sum of squares in double (the
+ * definition), and are the same in every layout. */
+static void test_norms(void **state) {
+    (void)state;
+    char path[4096];
+    snprintf(path, sizeof path, "%s", temp_path("norms.bin"));
+    write_set(path, W_BINARY, 0, 1000);
+    vg_vectors *v = load_threads(path, 2);
+    for (size_t i = 0; i < 1000; i++) {
+        double s = 0;
+        for (size_t j = 0; j < DIMS; j++) s += (double)matrix[i * DIMS + j] * matrix[i * DIMS + j];
+        assert_close(vg_vectors_norms(v)[i], sqrt(s), 0, 1e-7);
+    }
+    double mn, md, mx;
+    vg_error err;
+    assert_vg_ok(vg_vectors_norm_summary(v, &mn, &md, &mx, &err), &err);
+    assert_true(mn == 0);
+    assert_true(md > mn && mx > md);
+    vg_vectors_free(v);
+    unlink(path);
+}
+
+/* pipe-1: a FIFO (size unknown: the matrix grows as rows arrive, while
+ * the threads parse in place), plain text and gzip binary, equal to the
+ * written matrix; the reservation is made tiny to force many growths. */
+static void test_pipes(void **state) {
+    (void)state;
+    struct {
+        wlayout lay;
+        int gz;
+        const char *name;
+    } cases[] = {{W_TEXT_PLAIN, 0, "pipe.txt"}, {W_BINARY, 1, "pipe.bin.gz"}, {W_TEXT, 1, "pipe.txt.gz"}};
+    signal(SIGPIPE, SIG_IGN);
+    vg_vecbuild_test_reserve = 100;
+    for (size_t c = 0; c < 3; c++) {
+        char file[4096], fifo[4200];
+        snprintf(file, sizeof file, "%s", temp_path(cases[c].name));
+        write_set(file, cases[c].lay, cases[c].gz, ROWS);
+        snprintf(fifo, sizeof fifo, "%s.fifo", file);
+        unlink(fifo);
+        assert_int_equal(mkfifo(fifo, 0600), 0);
+        pid_t pid = fork();
+        assert_true(pid >= 0);
+        if (pid == 0) {
+            FILE *in = fopen(file, "rb"), *out = fopen(fifo, "wb");
+            char buf[65536];
+            size_t n;
+            while (in && out && (n = fread(buf, 1, sizeof buf, in)) > 0) fwrite(buf, 1, n, out);
+            if (out) fclose(out);
+            _exit(0);
+        }
+        vg_vectors *v = load_threads(fifo, 2);
+        int status;
+        waitpid(pid, &status, 0);
+        expect_exact(v, ROWS);
+        vg_vectors *f = load_threads(file, 2);
+        assert_string_equal(vg_vectors_get_info(v)->sha256, vg_vectors_get_info(f)->sha256);
+        assert_int_equal(vg_vectors_get_info(v)->bytes, vg_vectors_get_info(f)->bytes);
+        vg_vectors_free(f);
+        vg_vectors_free(v);
+        unlink(fifo);
+        unlink(file);
+    }
+    vg_vecbuild_test_reserve = 0;
+}
+
+int main(void) {
+    const struct CMUnitTest tests[] = {
+        cmocka_unit_test(test_round_trips),
+        cmocka_unit_test(test_errors_deep),
+        cmocka_unit_test(test_filter_and_max),
+        cmocka_unit_test(test_norms),
+        cmocka_unit_test(test_pipes),
+        cmocka_unit_test(test_partial_hash),
+    };
+    return cmocka_run_group_tests_name("vectors_big", tests, setup, teardown);
+}
