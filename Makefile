@@ -70,13 +70,18 @@ STATS_O   = stats/rank.o stats/correlation.o stats/kendall.o stats/interval.o \
             stats/resample.o stats/corrboot.o stats/agreement.o \
             stats/paired_correlation.o stats/paired_counts.o
 EVAL_O    = eval/results.o eval/evaluate.o eval/similarity_rows.o eval/agreement.o
+COMPARE_O = compare/compare.o compare/compare_similarity.o compare/compare_analogy.o \
+            compare/paired_items.o compare/saved_run.o compare/saved_pair.o compare/merge.o
 REPORT_O  = report/csvout.o report/summary_md.o report/rundir.o report/intervals.o \
             report/items_csv.o report/latex.o report/run_json.o report/run_record.o
+REPORT_O += report/comparison_csv.o report/comparison_md.o report/comparison_json.o report/plot.o \
+            report/plot_compare.o report/plot_track.o report/history.o
 CLI_O     = cli/main.o cli/util.o cli/signals.o cli/run_output.o cli/cmd_score.o \
             cli/cmd_rerun.o cli/cmd_suites.o cli/cmd_fetch.o
+CLI_O    += cli/cmd_compare.o cli/cmd_track.o cli/cmd_merge.o
 
 LIB_O = $(addprefix $(BUILD)/obj/,$(COMMON_O) $(VECTORS_O) $(SUITES_O) $(FETCH_O) \
-          $(SCORE_O) $(STATS_O) $(EVAL_O) $(REPORT_O))
+          $(SCORE_O) $(STATS_O) $(EVAL_O) $(COMPARE_O) $(REPORT_O))
 BIN_O = $(addprefix $(BUILD)/obj/,$(CLI_O))
 
 LIB   = $(BUILD)/libvecgauge.a
