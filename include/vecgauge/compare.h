@@ -88,6 +88,11 @@ typedef struct vg_compare_options {
     const size_t *pairs;    /* n_pairs (a, b) set indices, pairs[2k], pairs[2k+1]:
                                the pairs to compare; NULL: every a < b */
     size_t n_pairs;
+    const unsigned char *pair_suites; /* NULL, or n_pairs * n_suites flags: pair p
+                               is compared on suite k only where
+                               pair_suites[p * n_suites + k] (the common
+                               items of a suite are then those of the sets
+                               compared on it) */
     unsigned threads;       /* 0: one per online CPU; results never depend on it */
 } vg_compare_options;
 
@@ -145,7 +150,7 @@ typedef struct vg_set_rank {
 } vg_set_rank;
 
 typedef struct vg_comparisons {
-    vg_compare_options options; /* in effect (pairs set to NULL) */
+    vg_compare_options options; /* in effect (pairs and pair_suites set to NULL) */
     size_t n_sets;
     char **labels;
     size_t n_suites;

@@ -253,6 +253,7 @@ vg_status vg_compare(const vg_paired_items *in, const vg_compare_options *opt,
     size_t *all_pairs = NULL;
     size_t *work = NULL;
     double *p = NULL, *adj = NULL;
+    unsigned char *ranked = NULL;
     b.c = vg_calloc(1, sizeof *b.c);
     b.in_pair = vg_calloc(in->n_sets, 1);
     if (!b.c || !b.in_pair || copy_names(b.c, in) != 0) goto oom;
@@ -274,9 +275,17 @@ vg_status vg_compare(const vg_paired_items *in, const vg_compare_options *opt,
             }
         b.pairs = all_pairs;
     }
-    for (size_t q = 0; q < 2 * b.n_pairs; q++) b.in_pair[b.pairs[q]] = 1;
+    b.pair_suites = opt->pairs ? opt->pair_suites : NULL;
+    b.c->options.pair_suites = NULL;
+    /* Sets in some pair, for the ranking. */
+    ranked = vg_calloc(in->n_sets, 1);
+    if (!ranked) goto oom;
+    for (size_t q = 0; q < 2 * b.n_pairs; q++) ranked[b.pairs[q]] = 1;
 
     for (size_t k = 0; k < in->n_suites && st == VG_OK; k++) {
+        memset(b.in_pair, 0, in->n_sets);
+        for (size_t q = 0; q < b.n_pairs; q++)
+            if (vg_cmp_pair_on(&b, q, k)) b.in_pair[b.pairs[2 * q]] = b.in_pair[b.pairs[2 * q + 1]] = 1;
         if (in->suites[k].task == VG_TASK_SIMILARITY)
             st = vg_cmp_similarity(&b, in, k, err);
         else
@@ -303,6 +312,9 @@ vg_status vg_compare(const vg_paired_items *in, const vg_compare_options *opt,
          * 1979: reject H_(j) while p_(j) <= alpha / (m - j + 1)). */
         c->rows[r].significant = !isnan(adj[r]) && adj[r] <= opt->alpha;
     }
+    memcpy(b.in_pair, ranked, in->n_sets);
+    vg_free(ranked);
+    ranked = NULL;
     if (rank_sets(c, b.in_pair) != 0) goto oom;
     vg_free(p);
     vg_free(adj);
@@ -314,6 +326,7 @@ vg_status vg_compare(const vg_paired_items *in, const vg_compare_options *opt,
 oom:
     st = vg_error_set(err, VG_ENOMEM, NULL, 0, "out of memory");
 fail:
+    vg_free(ranked);
     vg_free(p);
     vg_free(adj);
     vg_free(work);

@@ -153,6 +153,7 @@ static vg_status compare_method(vg_cmp_build *b, const vg_paired_items *in, size
     }
 
     for (size_t p = 0; p < b->n_pairs; p++) {
+        if (!vg_cmp_pair_on(b, p, k)) continue;
         size_t a = b->pairs[2 * p], c2 = b->pairs[2 * p + 1];
         vg_comparison row = vg_cmp_row_init(k, a, c2, VG_TASK_ANALOGY, metric, n);
         row.n_a = used[a];

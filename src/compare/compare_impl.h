@@ -15,8 +15,15 @@ typedef struct vg_cmp_build {
     size_t cap_rows, cap_scores;
     const size_t *pairs;      /* 2 * n_pairs set indices */
     size_t n_pairs;
-    unsigned char *in_pair;   /* n_sets: 1 if the set is in some pair */
+    const unsigned char *pair_suites; /* n_pairs * n_suites, or NULL: all */
+    unsigned char *in_pair;   /* n_sets: 1 if the set is in some pair compared
+                                 on the suite at hand */
 } vg_cmp_build;
+
+/* 1 if pair p is compared on suite k. */
+static inline int vg_cmp_pair_on(const vg_cmp_build *b, size_t p, size_t k) {
+    return !b->pair_suites || b->pair_suites[p * b->c->n_suites + k];
+}
 
 /* Append a row / a score (copied). -1 when out of memory. */
 VG_INTERNAL int vg_cmp_add_row(vg_cmp_build *b, const vg_comparison *row);

@@ -99,6 +99,7 @@ vg_status vg_cmp_similarity(vg_cmp_build *b, const vg_paired_items *in, size_t k
     }
 
     for (size_t p = 0; p < b->n_pairs; p++) {
+        if (!vg_cmp_pair_on(b, p, k)) continue;
         size_t a = b->pairs[2 * p], c2 = b->pairs[2 * p + 1];
         const set_boot *qa = &sb[a], *qb = &sb[c2];
         vg_comparison row = vg_cmp_row_init(k, a, c2, VG_TASK_SIMILARITY, "spearman", n);

@@ -10,7 +10,7 @@
 #include "vecgauge/compare.h"
 
 #define W 860.0
-#define H 480.0
+#define H 470.0
 
 typedef struct track_plot {
     const char *suite, *metric, *ylabel;
@@ -155,7 +155,7 @@ static void draw(cairo_t *cr, void *ctx, double width, double height) {
     cairo_restore(cr);
 
     /* Legend, two rows below the axis title. */
-    double ly = height - 46, lx = x0;
+    double ly = height - 40, lx = x0;
     vg_plot_font(cr, 12, 0);
     vg_plot_color(cr, vg_plot_band);
     cairo_rectangle(cr, lx, ly - 6, 24, 12);
