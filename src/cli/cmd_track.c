@@ -543,6 +543,10 @@ int vg_cmd_track(int argc, char **argv) {
         vg_cli_error(&err);
         goto done;
     }
+    /* Test hook (as in run_output.c): VECGAUGE_TEST_SLOW_WRITE=1 holds the
+     * lock 200 ms, so that tests can check that concurrent tracks wait. */
+    const char *slow = getenv("VECGAUGE_TEST_SLOW_WRITE");
+    if (slow && *slow == '1') usleep(200000);
     if (!have_step) {
         step = 0;
         for (size_t i = 0; i < t.h->n_rows; i++)
