@@ -106,9 +106,9 @@ vg_status vg_report_comparison_md(const vg_comparisons *c, FILE *fp, const char 
     fprintf(fp,
             "Is one vector set really better than another? Each row compares two sets on "
             "the same suite, item by item (difference = first set minus second). "
-            "p-values are adjusted for the %zu tests of this table with Holm's (1979) "
+            "p-values are adjusted for the %zu test%s of this table with Holm's (1979) "
             "method; a difference is **significant** when its adjusted p is at most %g.\n\n",
-            c->n_tests, o->alpha);
+            c->n_tests, c->n_tests == 1 ? "" : "s", o->alpha);
     if (as_is)
         fputs("**Warning (--no-common):** each set is scored on the items it covers, so a "
               "difference mixes the quality of the vectors with their coverage: a set that "
@@ -206,8 +206,8 @@ vg_status vg_report_comparison_md(const vg_comparisons *c, FILE *fp, const char 
               "(McNemar 1947; binomial on the questions exactly one set answered right), "
               "the interval the paired bootstrap of the accuracy difference.\n",
               fp);
-    fprintf(fp, "- Multiple comparisons: Holm (1979) over all %zu tests, at alpha = %g.\n",
-            c->n_tests, o->alpha);
+    fprintf(fp, "- Multiple comparisons: Holm (1979) over all %zu test%s, at alpha = %g.\n",
+            c->n_tests, c->n_tests == 1 ? "" : "s", o->alpha);
     if (boot_test && c->n_tests > 0) {
         /* The smallest bootstrap p is 1 / (B + 1); Holm compares the
          * smallest p with alpha / m. */
@@ -237,10 +237,10 @@ vg_status vg_report_comparison_text(const vg_comparisons *c, FILE *fp, vg_error 
         wa = VG_MAX(wa, strlen(c->labels[c->rows[i].set_a]));
         wb = VG_MAX(wb, strlen(c->labels[c->rows[i].set_b]));
     }
-    fprintf(fp, "comparison: %s; p adjusted by Holm over %zu tests, alpha %g\n",
+    fprintf(fp, "comparison: %s; p adjusted by Holm over %zu test%s, alpha %g\n",
             c->options.items == VG_COMPARE_AS_IS ? "each set on the items it covers (--no-common)"
                                                  : "items every set covers",
-            c->n_tests, c->options.alpha);
+            c->n_tests, c->n_tests == 1 ? "" : "s", c->options.alpha);
     fprintf(fp, "%-*s  %-8s  %-*s  %-*s  %7s  %-18s  %-9s  %-7s  %s\n", (int)ws, "suite",
             "metric", (int)wa, "a", (int)wb, "b", "a - b", "interval", "p", "Holm p",
             "verdict");
