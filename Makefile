@@ -39,7 +39,7 @@ WARN = -Wall -Wextra -Wpedantic -Wshadow -Wstrict-prototypes -Wmissing-prototype
 # Every library but GSL comes through pkg-config. GSL's .pc file adds its
 # reference CBLAS (-lgslcblas), which would shadow OpenBLAS's optimised
 # cblas_* symbols; link -lgsl alone and let OpenBLAS provide CBLAS.
-PKGS      = openblas zlib libcrypto jansson libcurl libarchive cairo
+PKGS      = openblas zlib libcrypto jansson libcurl libarchive cairo fontconfig
 PKG_CFLAGS := $(shell $(PKG_CONFIG) --cflags $(PKGS) 2>/dev/null)
 PKG_LIBS   := $(shell $(PKG_CONFIG) --libs $(PKGS) 2>/dev/null)
 

@@ -251,6 +251,12 @@ VG_API vg_status vg_plot_comparison(const vg_comparisons *c, size_t suite,
                                     const char *svg_path, const char *png_path,
                                     vg_error *err);
 
+/* Release the font caches that cairo and fontconfig keep for the whole
+ * process once a plot has been drawn (cairo_debug_reset_static_data,
+ * FcFini), so that memory checkers see no leak. Call it only at exit,
+ * when nothing else in the process uses cairo or fontconfig any more. */
+VG_API void vg_plot_cleanup(void);
+
 /* ---- saved run directories --------------------------------------------- */
 
 /* One suite as saved in a run directory. */

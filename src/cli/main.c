@@ -89,5 +89,8 @@ int main(int argc, char **argv) {
                 vg_cli_progname);
         return VG_EXIT_USAGE;
     }
-    return c->run(argc - 1, argv + 1);
+    int rc = c->run(argc - 1, argv + 1);
+    /* The process ends here: let go of cairo's and fontconfig's caches. */
+    vg_plot_cleanup();
+    return rc;
 }

@@ -2,6 +2,7 @@
  * Part of vecgauge; MIT licence, see LICENSE.
  */
 #include <cairo-svg.h>
+#include <fontconfig/fontconfig.h>
 #include <math.h>
 #include <stdio.h>
 #include <string.h>
@@ -189,4 +190,9 @@ void vg_plot_name(const char *const *ids, size_t n, size_t k, char *buf, size_t 
         snprintf(buf, size, "%s-%zu", mine, dup);
     else
         snprintf(buf, size, "%s", mine);
+}
+
+void vg_plot_cleanup(void) {
+    cairo_debug_reset_static_data();
+    FcFini();
 }
