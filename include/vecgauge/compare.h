@@ -191,9 +191,12 @@ typedef struct vg_comparisons {
  * Analogy: accuracy per method (3CosAdd alone by default); McNemar's
  * exact test on the questions both sets answered, and the same paired
  * bootstrap of the accuracy difference (same streams).
- * The test behind p_value: the bootstrap for similarity (Steiger's Z1*
- * when B = 0), McNemar for analogy in common mode, the bootstrap in
- * as-is mode (McNemar then covers other questions than the scores).
+ * The test behind p_value: in common mode Steiger's Z1* for similarity
+ * (applied to Spearman's rho as is common practice, e.g. Rastogi, Van
+ * Durme and Arora 2015; from memory) and McNemar for analogy, both
+ * analytic, so that Holm's adjustment over many suites and pairs is not
+ * held back by the 1 / (B + 1) floor of a bootstrap p; in as-is mode the
+ * bootstrap (Steiger and McNemar then cover other items than the scores).
  * Holm's (1979) adjustment runs over every row's p_value.
  *
  * Deterministic: the same input and options give the same table for any

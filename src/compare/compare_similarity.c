@@ -143,12 +143,17 @@ vg_status vg_cmp_similarity(vg_cmp_build *b, const vg_paired_items *in, size_t k
         vg_test_result z = vg_paired_steiger_z(rha, rhb, row.r_ab, m, 1);
         row.steiger_z = z.statistic;
         row.p_steiger = z.p_value;
-        if (B > 0) {
-            row.test = "bootstrap";
-            row.p_value = row.p_bootstrap;
-        } else if (!as_is) {
+        /* The test: Steiger's Z1* on the common items (an analytic p,
+         * so Holm over many suites and pairs is not limited by the
+         * 1 / (B + 1) floor of a bootstrap p); in as-is mode the two
+         * scores stand on different items and only the bootstrap tests
+         * their difference. */
+        if (!as_is) {
             row.test = "steiger-z1";
             row.p_value = row.p_steiger;
+        } else if (B > 0) {
+            row.test = "bootstrap";
+            row.p_value = row.p_bootstrap;
         }
         if (vg_cmp_add_row(b, &row) != 0) goto oom;
     }

@@ -49,6 +49,9 @@ static const char *second_opinion(const vg_comparison *r, char buf[64]) {
     buf[0] = '\0';
     if (r->task == VG_TASK_SIMILARITY && strcmp(r->test, "steiger-z1") != 0 && !isnan(r->p_steiger))
         snprintf(buf, 64, "Steiger p %s", format_p(r->p_steiger, p));
+    else if (r->task == VG_TASK_SIMILARITY && strcmp(r->test, "bootstrap") != 0 &&
+             !isnan(r->p_bootstrap))
+        snprintf(buf, 64, "bootstrap p %s", format_p(r->p_bootstrap, p));
     else if (r->task == VG_TASK_ANALOGY && strcmp(r->test, "mcnemar-exact") != 0 &&
              !isnan(r->p_mcnemar))
         snprintf(buf, 64, "McNemar p %s", format_p(r->p_mcnemar, p));
@@ -179,8 +182,8 @@ vg_status vg_report_comparison_md(const vg_comparisons *c, FILE *fp, const char 
         sim |= r->task == VG_TASK_SIMILARITY;
         ana |= r->task == VG_TASK_ANALOGY;
         boot_test |= strcmp(r->test, "bootstrap") == 0;
-        if (r->task == VG_TASK_SIMILARITY && strcmp(r->test, "bootstrap") == 0 &&
-            !isnan(r->p_steiger) && (r->p_value <= o->alpha) != (r->p_steiger <= o->alpha))
+        if (r->task == VG_TASK_SIMILARITY && !isnan(r->p_steiger) && !isnan(r->p_bootstrap) &&
+            (r->p_bootstrap <= o->alpha) != (r->p_steiger <= o->alpha))
             disagree++;
     }
     fputs("### How the comparison was made\n\n", fp);
@@ -194,12 +197,16 @@ vg_status vg_report_comparison_md(const vg_comparisons *c, FILE *fp, const char 
                 "with d the difference and d* its resamples (Hall and Wilson 1991: the "
                 "resamples shifted to the null).\n",
                 o->replicates, (unsigned long long)o->seed, 100 * o->level);
-    if (sim)
+    if (sim && !as_is)
+        fputs("- Similarity: the test is Steiger's (1980) Z1* for two correlations sharing "
+              "the human ratings (Fisher z, pooled r; r_ab = Spearman's rho between the two "
+              "sets' cosines), applied to Spearman's rho; the paired bootstrap gives the "
+              "interval and a second p-value, shown beside it.\n",
+              fp);
+    if (sim && as_is)
         fputs("- Similarity: the test is the paired bootstrap of the difference in "
-              "Spearman's rho; Steiger's (1980) Z1* for two correlations sharing the human "
-              "ratings (Fisher z, pooled; r_ab = Spearman's rho between the two sets' "
-              "cosines) is shown beside it as a check, and is the test when there is no "
-              "bootstrap.\n",
+              "Spearman's rho (each set on its own pairs); Steiger's Z1* on the pairs both "
+              "sets cover is shown beside it.\n",
               fp);
     if (ana)
         fputs("- Analogy: accuracy by the method named; the test is McNemar's exact test "

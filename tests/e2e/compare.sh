@@ -110,10 +110,16 @@ expect_status "cmp-6: --no-common" 0 "$VG_BIN" compare --no-common --out "$TMP/a
 expect_in "cmp-6b: warns on stderr" "warning: --no-common" "$TMP/err"
 expect_in "cmp-6c: and in summary.md" "Warning (--no-common)" "$TMP/asis/summary.md"
 
-# cmp-7: too few resamples for Holm to reject anything: said plainly.
-"$VG_BIN" compare --bootstrap 30 --out "$TMP/few" "$TMP/abc" > /dev/null 2>&1
-expect_in "cmp-7: with 30 resamples and 3 tests the summary says to raise --bootstrap" \
+# cmp-7: with --no-common the bootstrap is the test, and too few
+# resamples for Holm to reject anything are said plainly; Steiger's test
+# (common items) has no such floor.
+"$VG_BIN" compare --no-common --bootstrap 30 --out "$TMP/few" "$TMP/abc" > /dev/null 2>&1
+expect_in "cmp-7: --no-common with 30 resamples and 3 tests: the summary says to raise --bootstrap" \
     "Too few resamples" "$TMP/few/summary.md"
+"$VG_BIN" compare --bootstrap 30 --out "$TMP/few2" "$TMP/abc" > /dev/null 2>&1
+check "cmp-7b: on the common items (Steiger's test) no such warning" \
+    bash -c "! grep -q 'Too few resamples' '$TMP/few2/summary.md'"
+expect_in "cmp-7c: the test is named in comparison.csv" ",steiger-z1," "$TMP/few2/comparison.csv"
 
 # cmp-8: plots are PNG (signature and IHDR size: PNG specification,
 # ISO/IEC 15948, section 5.2 and 11.2.2) and well-formed SVG (parsed by
