@@ -86,6 +86,16 @@ VG_API vg_status vg_report_agreement_csv(const vg_results *r, FILE *fp,
 VG_API vg_status vg_report_summary_md(const vg_results *r, const vg_provenance *prov,
                                       FILE *fp, const char *path, vg_error *err);
 
+struct vg_comparisons; /* compare.h */
+
+/* As vg_report_summary_md, with the comparison section of cmp
+ * (vg_report_comparison_md, compare.h) after the score tables; cmp NULL
+ * gives exactly vg_report_summary_md's file. */
+VG_API vg_status vg_report_summary_md_compared(const vg_results *r,
+                                               const struct vg_comparisons *cmp,
+                                               const vg_provenance *prov, FILE *fp,
+                                               const char *path, vg_error *err);
+
 /* Print the headline scores as an aligned plain-text table (stdout of
  * `vecgauge score`). */
 VG_API vg_status vg_report_text_table(const vg_results *r, FILE *fp, vg_error *err);
@@ -96,6 +106,9 @@ VG_API vg_status vg_report_text_table(const vg_results *r, FILE *fp, vg_error *e
  * present past the candidate rows, "not among the candidate rows". */
 VG_API vg_status vg_report_missing_words(const vg_results *r, FILE *fp,
                                          const char *path, vg_error *err);
+
+/* The header line of missing.csv, without the newline. */
+VG_API const char *vg_report_missing_header(void);
 
 /* The header line of items.csv, without the newline. */
 VG_API const char *vg_report_items_header(void);

@@ -31,6 +31,7 @@
 #include "results.h"
 #include "report.h"
 #include "paired.h"
+#include "compare.h"
 
 #ifdef __cplusplus
 extern "C" {

@@ -10,13 +10,17 @@
 #include <stddef.h>
 #include <stdint.h>
 
+#include <stdio.h>
+
 #include "vecgauge/vecgauge.h"
 
 /* Exit statuses, documented in the README and the man page. */
 enum {
     VG_EXIT_OK = 0,      /* success */
     VG_EXIT_FAIL = 1,    /* bad input, failed check, I/O error */
-    VG_EXIT_USAGE = 2    /* bad command line */
+    VG_EXIT_USAGE = 2,   /* bad command line */
+    VG_EXIT_REGRESSION = 3 /* track --fail-on-regression: a suite regressed
+                              significantly (after Holm's adjustment) */
 };
 
 extern const char *vg_cli_progname;
@@ -95,10 +99,47 @@ int vg_cli_load_option(const char *command, int c, const char *arg, vg_load_opti
  * prints the error and returns VG_EXIT_FAIL on failure. */
 int vg_cli_write_run(const char *dir, const vg_results *res, const vg_provenance *prov);
 
+/* As vg_cli_write_run, adding comparison.csv, ranking.csv, the comparison
+ * section of summary.md and plots/ when cmp is not NULL. */
+int vg_cli_write_run_compared(const char *dir, const vg_results *res, const vg_comparisons *cmp,
+                              const vg_provenance *prov);
+
+/* Comparison plots (cmd_compare.c): the names "plots/<suite>.svg" and
+ * ".png" of every suite of cmp with scores, then "plots" itself, into a
+ * new NULL-terminated array (free with vg_cli_free_names); NULL when out
+ * of memory. vg_cli_write_plots makes plots/ inside rd and draws them. */
+char **vg_cli_plot_names(const vg_comparisons *cmp);
+void vg_cli_free_names(char **names);
+vg_status vg_cli_write_plots(vg_rundir *rd, const vg_comparisons *cmp, vg_error *err);
+
+/* A directory of output files written whole or not at all (cmd_compare.c):
+ * files in order, the plots (names as for the signal handler, drawn by
+ * plots(rd, ctx)) just before the last file. Prints the error and
+ * returns VG_EXIT_FAIL on failure. */
+typedef struct vg_cli_file {
+    const char *name;
+    vg_status (*fn)(void *ctx, FILE *fp, const char *path, vg_error *err);
+    void *ctx;
+} vg_cli_file;
+int vg_cli_write_dir(const char *dir, const vg_cli_file *files, size_t n, char **plot_names,
+                     vg_status (*plots)(vg_rundir *rd, void *ctx, vg_error *err), void *plot_ctx);
+
+/* Load the run directories named by argv[0..n) (printing the error and
+ * returning NULL on failure); free with vg_cli_free_runs. With
+ * label_from_dir, each set is relabelled by its directory's name (and
+ * its own label, "DIR:LABEL", when the run holds several sets). */
+vg_saved_run **vg_cli_load_runs(char **dirs, size_t n, int label_from_dir);
+void vg_cli_free_runs(vg_saved_run **runs, size_t n);
+
+/* Parse --methods: comma-separated analogy method names into a bit set.
+ * 0 on success. */
+int vg_cli_parse_methods(const char *s, unsigned *out);
+
 /* SIGINT/SIGTERM handling (signals.c): install the handlers once; while a
  * run directory is written, register its temporary path and the file
- * names it can hold (a NULL-terminated static array) so that a signal
- * removes them; NULL unregisters. vg_cli_interrupted() tells long work to
+ * names it can hold (a NULL-terminated array that stays unchanged while
+ * registered; a name may be a subdirectory, listed after its files) so
+ * that a signal removes them; NULL unregisters. vg_cli_interrupted() tells long work to
  * stop. */
 void vg_cli_install_signals(void);
 void vg_cli_set_cleanup(const char *temp_dir, const char *const *names);
@@ -110,5 +151,8 @@ int vg_cmd_rerun(int argc, char **argv);
 int vg_cmd_suites(int argc, char **argv);
 int vg_cmd_fetch(int argc, char **argv);
 int vg_cmd_inspect(int argc, char **argv);
+int vg_cmd_compare(int argc, char **argv);
+int vg_cmd_track(int argc, char **argv);
+int vg_cmd_merge(int argc, char **argv);
 
 #endif /* VG_CLI_H */

@@ -44,13 +44,20 @@ static const char score_help[] =
     "      --keep-question-words  let a, b and c of a question be its answer\n"
     "  -j, --threads N        threads (default: one per CPU)\n"
     "\n"
+    "Comparing (with two or more vector sets):\n"
+    "      --alpha A          significance level after Holm's adjustment (default 0.05)\n"
+    "      --no-common        compare each set on the items it covers instead of on the\n"
+    "                         items every set covers (warns)\n"
+    "      --methods LIST     analogy methods to compare (default 3cosadd)\n"
+    "\n"
     "%s"
     "\n"
     "  -h, --help             show this help and exit\n"
     "\n"
     "Writes scores.csv, intervals.csv, agreement.csv, items.csv, missing.csv,\n"
     "summary.md, table.tex and run.json into the run directory and prints the\n"
-    "headline table on standard output. Intervals are BCa bootstrap intervals\n"
+    "headline table on standard output; with several sets also comparison.csv,\n"
+    "ranking.csv and plots/ (see 'vecgauge compare --help'). Intervals are BCa bootstrap intervals\n"
     "(percentile and Fisher-z ones in intervals.csv); the same seed gives the\n"
     "same numbers for any --threads.\n";
 
@@ -73,10 +80,11 @@ typedef struct score_args {
     char data_used[VG_ERROR_PATH_MAX]; /* the data directory read, "" if none */
     vg_load_options load;
     int progress;
+    vg_compare_options cmp;   /* alpha, items, methods for several sets */
 } score_args;
 
 enum { OPT_FOLD = 256, OPT_SEED, OPT_BOOT, OPT_DATA, OPT_MANIFEST, OPT_CI, OPT_ANALOGY_VOCAB,
-       OPT_KEEP_QWORDS };
+       OPT_KEEP_QWORDS, OPT_ALPHA, OPT_NO_COMMON, OPT_METHODS };
 
 static const struct option long_opts[] = {
     {"suite", required_argument, NULL, 's'},
@@ -92,6 +100,9 @@ static const struct option long_opts[] = {
     {"analogy-vocab", required_argument, NULL, OPT_ANALOGY_VOCAB},
     {"keep-question-words", no_argument, NULL, OPT_KEEP_QWORDS},
     {"threads", required_argument, NULL, 'j'},
+    {"alpha", required_argument, NULL, OPT_ALPHA},
+    {"no-common", no_argument, NULL, OPT_NO_COMMON},
+    {"methods", required_argument, NULL, OPT_METHODS},
     {"help", no_argument, NULL, 'h'},
     VG_CLI_LOAD_LONG_OPTIONS,
     {NULL, 0, NULL, 0}};
@@ -121,7 +132,7 @@ static const char **suite_words(vg_suite *const *suites, size_t n, size_t *count
 
 /* Every option of the run with its effective value, for run.json. The
  * buffers live in *a so the settings stay valid while the run is written. */
-static size_t score_settings(score_args *a, vg_setting *st, char bufs[][32]) {
+static size_t score_settings(score_args *a, int compared, vg_setting *st, char bufs[][32]) {
     size_t n = 0;
     snprintf(bufs[n], 32, "%llu", (unsigned long long)a->eval.seed);
     st[n] = (vg_setting){"seed", bufs[n], VG_SETTING_INTEGER};
@@ -147,6 +158,22 @@ static size_t score_settings(score_args *a, vg_setting *st, char bufs[][32]) {
      * XDG default), so that a rerun elsewhere reads the same one. */
     if (a->data_used[0]) st[n++] = (vg_setting){"data", a->data_used, VG_SETTING_STRING};
     if (a->manifest) st[n++] = (vg_setting){"manifest", a->manifest, VG_SETTING_STRING};
+    if (compared) {
+        /* The comparison's own options, when several sets were compared. */
+        snprintf(bufs[n], 32, "%.17g", a->cmp.alpha);
+        st[n] = (vg_setting){"alpha", bufs[n], VG_SETTING_REAL};
+        n++;
+        st[n++] = (vg_setting){"no-common", a->cmp.items == VG_COMPARE_AS_IS ? "1" : "0",
+                               VG_SETTING_BOOL};
+        bufs[n][0] = '\0';
+        unsigned ms = a->cmp.methods ? a->cmp.methods : 1u << VG_METHOD_3COSADD;
+        for (int m = 0; m < VG_METHOD_COUNT; m++)
+            if (ms & (1u << m))
+                snprintf(bufs[n] + strlen(bufs[n]), 32 - strlen(bufs[n]), "%s%s",
+                         bufs[n][0] ? "," : "", vg_method_name((vg_method)m));
+        st[n] = (vg_setting){"methods", bufs[n], VG_SETTING_STRING};
+        n++;
+    }
     return n;
 }
 
@@ -275,6 +302,7 @@ int vg_cmd_score(int argc, char **argv) {
     vg_eval_options_init(&a.eval);
     vg_load_options_init(&a.load);
     a.progress = 1;
+    vg_compare_options_init(&a.cmp);
     int rc = VG_EXIT_FAIL;
     optind = 1;
     opterr = 0;
@@ -340,6 +368,24 @@ int vg_cmd_score(int argc, char **argv) {
             }
             a.eval.score.threads = (unsigned)u;
             break;
+        case OPT_ALPHA: {
+            double al;
+            if (vg_cli_parse_double(optarg, 0, 1, &al) != 0 || al <= 0 || al >= 1) {
+                rc = vg_cli_usage_error("score", "--alpha needs a level between 0 and 1 (e.g. 0.05), "
+                                        "got '%s'", optarg);
+                goto done;
+            }
+            a.cmp.alpha = al;
+            break;
+        }
+        case OPT_NO_COMMON: a.cmp.items = VG_COMPARE_AS_IS; break;
+        case OPT_METHODS:
+            if (vg_cli_parse_methods(optarg, &a.cmp.methods) != 0) {
+                rc = vg_cli_usage_error("score", "--methods takes 3cosadd, 3cosmul, pairdir or "
+                                        "only_b, comma-separated; got '%s'", optarg);
+                goto done;
+            }
+            break;
         case 'h':
             printf(score_help, (unsigned)VG_DEFAULT_SEED, (unsigned)VG_DEFAULT_BOOTSTRAP,
                    VG_DEFAULT_CI, (unsigned)VG_DEFAULT_ANALOGY_VOCAB,
@@ -373,6 +419,8 @@ int vg_cmd_score(int argc, char **argv) {
     vg_vectors **vecs = calloc((size_t)n_sets, sizeof *vecs);
     const char **words = NULL;
     vg_results *res = NULL;
+    vg_paired_items *paired = NULL;
+    vg_comparisons *cmp = NULL;
     char *cmdline = NULL;
     if (!sets || !labels || !paths || !vecs) {
         vg_cli_fail("out of memory");
@@ -430,6 +478,22 @@ int vg_cmd_score(int argc, char **argv) {
         vg_cli_error(&err);
         goto cleanup;
     }
+    if (n_sets >= 2) {
+        /* Several sets: compare them item by item, on the same resamples
+         * as their intervals. */
+        a.cmp.replicates = a.eval.bootstrap;
+        a.cmp.seed = a.eval.seed;
+        a.cmp.level = a.eval.ci;
+        a.cmp.threads = a.eval.score.threads;
+        if (a.cmp.items == VG_COMPARE_AS_IS)
+            fprintf(stderr, "%s: warning: --no-common: each set is compared on the items it "
+                    "covers; differences mix vector quality with coverage\n", vg_cli_progname);
+        if (vg_paired_items_from_results(res, &paired, &err) != VG_OK ||
+            vg_compare(paired, &a.cmp, &cmp, &err) != VG_OK) {
+            vg_cli_error(&err);
+            goto cleanup;
+        }
+    }
 
     char iso[32], stamp[32];
     vg_cli_utc_now(iso, stamp);
@@ -456,10 +520,11 @@ int vg_cmd_score(int argc, char **argv) {
                           .argc = (size_t)vg_cli_argc,
                           .cwd = cwd,
                           .settings = settings,
-                          .n_settings = score_settings(&a, settings, setting_bufs)};
-    rc = vg_cli_write_run(out, res, &prov);
+                          .n_settings = score_settings(&a, cmp != NULL, settings, setting_bufs)};
+    rc = vg_cli_write_run_compared(out, res, cmp, &prov);
     if (rc == VG_EXIT_OK) {
-        if (vg_report_text_table(res, stdout, &err) != VG_OK) {
+        if (vg_report_text_table(res, stdout, &err) != VG_OK ||
+            (cmp && (fputc('\n', stdout), vg_report_comparison_text(cmp, stdout, &err)) != VG_OK)) {
             vg_cli_error(&err);
             rc = VG_EXIT_FAIL;
         }
@@ -467,6 +532,8 @@ int vg_cmd_score(int argc, char **argv) {
     }
 
 cleanup:
+    vg_comparisons_free(cmp);
+    vg_paired_items_free(paired);
     free(cmdline);
     vg_results_free(res);
     free(words);

@@ -20,6 +20,9 @@ static const command commands[] = {
     {"suites", vg_cmd_suites, "list the known suites and which are in the data directory"},
     {"fetch", vg_cmd_fetch, "download public suites into the data directory"},
     {"rerun", vg_cmd_rerun, "re-run a saved run directory after checking its inputs"},
+    {"compare", vg_cmd_compare, "compare the vector sets of saved runs item by item"},
+    {"track", vg_cmd_track, "add a run to a training history and check for regressions"},
+    {"merge", vg_cmd_merge, "combine many run directories into one"},
     {"help", cmd_help, "show help for vecgauge or for one command"},
 };
 #define N_COMMANDS (sizeof commands / sizeof commands[0])
@@ -38,7 +41,8 @@ static void main_help(FILE *fp) {
             "  vecgauge COMMAND --help   help for one command\n"
             "  vecgauge --version        print the version\n"
             "\n"
-            "Exit status: 0 success; 1 bad input or a failed check; 2 usage error.\n");
+            "Exit status: 0 success; 1 bad input or a failed check; 2 usage error;\n"
+            "3 a significant regression (track --fail-on-regression).\n");
 }
 
 static const command *find(const char *name) {
@@ -86,5 +90,8 @@ int main(int argc, char **argv) {
                 vg_cli_progname);
         return VG_EXIT_USAGE;
     }
-    return c->run(argc - 1, argv + 1);
+    int rc = c->run(argc - 1, argv + 1);
+    /* The process ends here: let go of cairo's and fontconfig's caches. */
+    vg_plot_cleanup();
+    return rc;
 }

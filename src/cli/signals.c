@@ -4,7 +4,7 @@
  * While a run directory is being written its temporary path is
  * registered here. A first signal removes that temporary directory's
  * files (with async-signal-safe calls only: the directory holds only the
- * regular files we name) and exits with 128 + the signal number, as a
+ * regular files and subdirectories we name) and exits with 128 + the signal number, as a
  * shell would report it. Outside that window the signal just sets a flag
  * that long-running work polls, and the default action follows.
  */
@@ -19,7 +19,7 @@ static volatile sig_atomic_t got_signal;
 static char cleanup_dir[4096];
 static volatile sig_atomic_t cleanup_set;
 /* The file names the directory being written can hold (NULL-terminated,
- * static storage of the writer). */
+ * owned by the writer and unchanged while registered). */
 static const char *const *run_names;
 
 static void remove_run_temp(void) {
@@ -32,7 +32,9 @@ static void remove_run_temp(void) {
         memcpy(path, cleanup_dir, n);
         path[n] = '/';
         memcpy(path + n + 1, run_names[i], m + 1);
-        unlink(path);
+        /* A name is a file, or a subdirectory emptied by the names
+         * before it (both calls are async-signal-safe). */
+        if (unlink(path) != 0) rmdir(path);
     }
     rmdir(cleanup_dir);
 }

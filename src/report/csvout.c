@@ -72,9 +72,11 @@ static void missing_line(FILE *fp, const char *set, const char *suite, const cha
     vg_csv_field(fp, reason, '\n');
 }
 
+const char *vg_report_missing_header(void) { return "vectors,suite,word,reason"; }
+
 vg_status vg_report_missing_words(const vg_results *r, FILE *fp, const char *path,
                                   vg_error *err) {
-    fputs("vectors,suite,word,reason\n", fp);
+    fprintf(fp, "%s\n", vg_report_missing_header());
     for (size_t i = 0; i < r->n_sets; i++) {
         for (size_t k = 0; k < r->n_suites; k++) {
             const vg_item_block *b = &r->blocks[i * r->n_suites + k];

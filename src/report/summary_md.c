@@ -11,6 +11,7 @@
 
 #include "../common/numfmt.h"
 #include "report_impl.h"
+#include "vecgauge/compare.h"
 #include "vecgauge/report.h"
 
 void vg_md_cell(FILE *fp, const char *s) {
@@ -186,11 +187,20 @@ static void provenance_section(const vg_results *r, const vg_provenance *prov, F
 
 vg_status vg_report_summary_md(const vg_results *r, const vg_provenance *prov, FILE *fp,
                                const char *path, vg_error *err) {
+    return vg_report_summary_md_compared(r, NULL, prov, fp, path, err);
+}
+
+vg_status vg_report_summary_md_compared(const vg_results *r, const struct vg_comparisons *cmp,
+                                        const vg_provenance *prov, FILE *fp, const char *path,
+                                        vg_error *err) {
     fprintf(fp, "# vecgauge summary\n\n");
     fprintf(fp, "%zu vector set%s on %zu suite%s. Higher is better for every score.\n\n",
             r->n_sets, r->n_sets == 1 ? "" : "s", r->n_suites, r->n_suites == 1 ? "" : "s");
     vg_md_similarity(r, fp);
     vg_md_analogy(r, fp);
+    /* The comparison section lives in comparison_md.c. */
+    vg_status cs = cmp ? vg_report_comparison_md(cmp, fp, path, err) : VG_OK;
+    if (cs != VG_OK) return cs;
     coverage_warnings(r, fp);
     vg_md_fold_case(r, fp);
     vg_md_intervals(r, fp);

@@ -1,0 +1,436 @@
+/* compare.h - is vector set A really better than B, and did this training
+ * job make things worse? Comparisons item by item, saved runs, history.
+ * Part of vecgauge; MIT licence, see LICENSE.
+ *
+ * The engine (vg_compare) takes a plain table of paired items: for every
+ * suite, what each vector set did on each item (a cosine, or right/wrong
+ * per analogy method). It comes from an in-process vg_results
+ * (vg_paired_items_from_results) or from saved run directories
+ * (vg_saved_run_load + vg_saved_runs_pair), so a training program can
+ * compare in-process exactly as `vecgauge compare` does on disk. Out comes
+ * one table of comparisons (one row per suite, metric and pair of sets)
+ * with intervals, p-values and Holm's adjustment, the scores of every set
+ * on the items compared, and a ranking of the sets.
+ */
+#ifndef VG_COMPARE_H
+#define VG_COMPARE_H
+
+#include <stdio.h>
+#include <stddef.h>
+#include <stdint.h>
+
+#include "error.h"
+#include "report.h"
+#include "results.h"
+#include "score.h"
+#include "suite.h"
+#include "vg_config.h"
+
+#ifdef __cplusplus
+extern "C" {
+#endif
+
+/* ---- the input: paired items ------------------------------------------- */
+
+/* Per-item records of every compared set on one suite. Item i of every
+ * set is the same item (same words, same rating). */
+typedef struct vg_paired_suite {
+    const char *id;                 /* suite id: also names the resampling
+                                       stream, so replicate r draws the same
+                                       items as the per-set intervals */
+    vg_task task;
+    size_t n_items;
+    const double *rating;           /* similarity: n_items human ratings */
+    const double *const *cosine;    /* similarity: n_sets arrays of n_items
+                                       cosines, NaN where the set did not
+                                       score the item */
+    const signed char *const *correct; /* analogy: [set * VG_METHOD_COUNT + m]
+                                       arrays of n_items values, 1 right,
+                                       0 wrong, -1 not answered; an entry is
+                                       NULL when method m was not run */
+} vg_paired_suite;
+
+typedef struct vg_paired_items {
+    size_t n_sets;
+    const char *const *labels;      /* n_sets distinct labels */
+    size_t n_suites;
+    const vg_paired_suite *suites;  /* n_suites */
+    void *priv_;                    /* storage when built by vecgauge; not API */
+} vg_paired_items;
+
+/* The paired items of every set of r on every suite (borrowing r's
+ * labels and suite ids, which must outlive the result): a pair's cosine
+ * where its status is "scored", else NaN; a question's correctness per
+ * method where a prediction exists, else -1 (exactly what items.csv
+ * holds). *out is freed with vg_paired_items_free. VG_ENOMEM on failure. */
+VG_API vg_status vg_paired_items_from_results(const vg_results *r, vg_paired_items **out,
+                                              vg_error *err);
+
+/* NULL does nothing. */
+VG_API void vg_paired_items_free(vg_paired_items *p);
+
+/* ---- options ----------------------------------------------------------- */
+
+/* Which items a comparison uses. */
+typedef enum vg_compare_items {
+    VG_COMPARE_COMMON = 0,  /* only items every compared set covers (the default) */
+    VG_COMPARE_AS_IS = 1    /* each set on the items it covers: its own score */
+} vg_compare_items;
+
+typedef struct vg_compare_options {
+    size_t replicates;      /* B (VG_DEFAULT_BOOTSTRAP); 0: no bootstrap */
+    uint64_t seed;          /* VG_DEFAULT_SEED */
+    double level;           /* confidence level of the intervals (VG_DEFAULT_CI) */
+    double alpha;           /* significance level after Holm's adjustment (0.05) */
+    vg_compare_items items; /* VG_COMPARE_COMMON */
+    unsigned methods;       /* analogy methods compared, bit 1 << vg_method;
+                               0 means 3CosAdd alone */
+    const size_t *pairs;    /* n_pairs (a, b) set indices, pairs[2k], pairs[2k+1]:
+                               the pairs to compare; NULL: every a < b */
+    size_t n_pairs;
+    const unsigned char *pair_suites; /* NULL, or n_pairs * n_suites flags: pair p
+                               is compared on suite k only where
+                               pair_suites[p * n_suites + k] (the common
+                               items of a suite are then those of the sets
+                               compared on it) */
+    unsigned threads;       /* 0: one per online CPU; results never depend on it */
+} vg_compare_options;
+
+VG_API void vg_compare_options_init(vg_compare_options *opt);
+
+/* ---- the output: one table of comparisons ------------------------------ */
+
+/* One suite, metric and pair of sets. Differences are a minus b. */
+typedef struct vg_comparison {
+    size_t suite;            /* index into the input's suites */
+    size_t set_a, set_b;     /* indices into the input's sets */
+    vg_task task;
+    const char *metric;      /* "spearman", or an analogy method's name */
+    size_t n_items;          /* items in the suite */
+    size_t n_compared;       /* common: items every set covers; as-is:
+                                items a or b covers */
+    size_t n_dropped;        /* common: items left out because some compared
+                                set did not cover them; as-is: 0 */
+    size_t n_a, n_b;         /* items behind score_a and score_b */
+    double score_a, score_b; /* rho or accuracy (0..1) on those items */
+    double diff;             /* score_a - score_b */
+    double diff_low, diff_high; /* interval for diff at options.level */
+    const char *interval;    /* "bca", "percentile", or "" with no interval */
+    size_t replicates;       /* bootstrap replicates with a defined difference */
+    double p_bootstrap;      /* two-sided bootstrap p of diff = 0 (NaN if B = 0) */
+    double r_ab;             /* similarity: Spearman between a's and b's cosines */
+    double steiger_z, p_steiger; /* similarity: Steiger's Z1* and its p */
+    size_t only_a, only_b;   /* analogy: questions only a / only b answered right */
+    double p_mcnemar;        /* analogy: McNemar's exact p */
+    const char *test;        /* the test behind p_value: "bootstrap",
+                                "steiger-z1", "mcnemar-exact" or "" (none) */
+    double p_value;          /* that test's p (NaN when none is possible) */
+    double p_holm;           /* Holm-adjusted over every row's p_value */
+    int significant;         /* p_holm <= alpha */
+} vg_comparison;
+
+/* The score of one set on the items of its comparisons, with its
+ * bootstrap interval (percentile when BCa is undefined). */
+typedef struct vg_compared_score {
+    size_t suite, set;
+    const char *metric;
+    double value, low, high; /* NaN when undefined or B = 0 */
+    const char *interval;    /* "bca", "percentile" or "" */
+    size_t n;                /* items behind value */
+} vg_compared_score;
+
+/* A set's standing across suites: ranks on the headline metric of each
+ * suite (Spearman; the first compared analogy method), 1 = best, ties
+ * sharing the average rank. */
+typedef struct vg_set_rank {
+    size_t set;
+    double mean_rank;        /* NaN when no suite ranks the set */
+    size_t suites;           /* suites where it was ranked */
+    size_t wins, losses;     /* significant differences (after Holm) for / against */
+} vg_set_rank;
+
+typedef struct vg_comparisons {
+    vg_compare_options options; /* in effect (pairs and pair_suites set to NULL) */
+    size_t n_sets;
+    char **labels;
+    size_t n_suites;
+    char **suite_ids;
+    vg_task *tasks;
+    size_t *n_items;            /* per suite */
+    size_t *covered;            /* [suite * n_sets + set]: items the set covers
+                                   (headline metric), whatever the mode */
+    vg_comparison *rows;        /* suite-major, then metric, then pair order */
+    size_t n_rows;
+    vg_compared_score *scores;  /* suite-major, then metric, then set */
+    size_t n_scores;
+    vg_set_rank *ranking;       /* n_sets, best first */
+    size_t n_tests;             /* p-values in Holm's family */
+} vg_comparisons;
+
+/* Compare the sets of in on every suite.
+ *
+ * Items: with VG_COMPARE_COMMON every row of a suite uses the same items,
+ * those every set covers (a pair with a cosine, a question answered by
+ * the metric's method); with VG_COMPARE_AS_IS each set keeps the items it
+ * covers, so score_a and score_b are the sets' own scores.
+ *
+ * Similarity: the paired bootstrap resamples the items jointly: replicate
+ * r draws the items of vg_stats_corr_bootstrap's replicate r on stream
+ * (seed, suite id), rho of each set is taken on the drawn items it is
+ * scored on, and the difference is taken replicate by replicate. Its
+ * interval is BCa (Efron 1987) from these differences with the jackknife
+ * differences behind the acceleration (percentile when BCa is
+ * undefined); its two-sided p-value is Hall and Wilson's (1991) test on
+ * the bootstrap distribution shifted to the null,
+ *   p = (1 + #{r : |d*_r - d| >= |d|}) / (B' + 1),
+ * B' the replicates with a defined difference (the +1 form of Davison and
+ * Hinkley 1997, section 4.4). Steiger's (1980) Z1* (vg_paired_steiger_z,
+ * pooled) tests the same difference analytically from rho_a, rho_b and
+ * r_ab = Spearman's rho between the two sets' cosines; in as-is mode it
+ * uses the items both sets cover.
+ * Analogy: accuracy per method (3CosAdd alone by default); McNemar's
+ * exact test on the questions both sets answered, and the same paired
+ * bootstrap of the accuracy difference (same streams).
+ * The test behind p_value: in common mode Steiger's Z1* for similarity
+ * (applied to Spearman's rho as is common practice, e.g. Rastogi, Van
+ * Durme and Arora 2015; from memory) and McNemar for analogy, both
+ * analytic, so that Holm's adjustment over many suites and pairs is not
+ * held back by the 1 / (B + 1) floor of a bootstrap p; in as-is mode the
+ * bootstrap (Steiger and McNemar then cover other items than the scores).
+ * Holm's (1979) adjustment runs over every row's p_value.
+ *
+ * Deterministic: the same input and options give the same table for any
+ * thread count. *out is freed with vg_comparisons_free. Returns
+ * VG_EINVAL for fewer than two sets, a level or alpha outside (0, 1), a
+ * pair out of range or with a = b, mismatched suites (a NULL array where
+ * the task needs one); VG_ENOMEM when out of memory. */
+VG_API vg_status vg_compare(const vg_paired_items *in, const vg_compare_options *opt,
+                            vg_comparisons **out, vg_error *err);
+
+/* NULL does nothing. */
+VG_API void vg_comparisons_free(vg_comparisons *c);
+
+/* The score of set on suite for metric in c, or NULL. */
+VG_API const vg_compared_score *vg_comparisons_score(const vg_comparisons *c, size_t suite,
+                                                     const char *metric, size_t set);
+
+/* ---- writing comparisons ----------------------------------------------- */
+
+/* The header line of comparison.csv, without the newline. */
+VG_API const char *vg_report_comparison_header(void);
+
+/* comparison.csv: one line per row of c, columns as in the header:
+ * suite, task, metric, set_a, set_b, items, compared, dropped, used_a,
+ * used_b, score_a, score_b, difference, ci_low, ci_high, ci_method,
+ * replicates, test, p_value, p_holm, significant (1/0), better (the label
+ * of the better set when significant, else empty), p_bootstrap,
+ * steiger_z, p_steiger, r_ab, only_a, only_b, p_mcnemar. Numbers
+ * round-trip (%.17g); undefined ones are empty. VG_EIO on write failure. */
+VG_API vg_status vg_report_comparison_csv(const vg_comparisons *c, FILE *fp, const char *path,
+                                          vg_error *err);
+
+/* ranking.csv: rank, vectors, mean_rank, suites, wins, losses. */
+VG_API vg_status vg_report_ranking_csv(const vg_comparisons *c, FILE *fp, const char *path,
+                                       vg_error *err);
+
+/* The comparison section of summary.md (a "## Comparison" heading, how
+ * items were chosen, a table per suite, the ranking, the methods). */
+VG_API vg_status vg_report_comparison_md(const vg_comparisons *c, FILE *fp, const char *path,
+                                         vg_error *err);
+
+/* The comparison as aligned text (stdout of compare and score). */
+VG_API vg_status vg_report_comparison_text(const vg_comparisons *c, FILE *fp, vg_error *err);
+
+/* The file name (without extension) of suite k's plot: the id with any
+ * byte outside [A-Za-z0-9._-] replaced by '_', and "-2", "-3" ... added
+ * when two ids map to the same name. Writes at most size bytes. */
+VG_API void vg_plot_name(const char *const *ids, size_t n, size_t k, char *buf, size_t size);
+
+/* Interval plot of suite k: each set's score on the compared items with
+ * its interval, best set marked, sets significantly below the best
+ * marked; written as SVG to svg_path and PNG to png_path (either may be
+ * NULL). VG_EIO with the path when cairo cannot write it. */
+VG_API vg_status vg_plot_comparison(const vg_comparisons *c, size_t suite,
+                                    const char *svg_path, const char *png_path,
+                                    vg_error *err);
+
+/* Release the font caches that cairo and fontconfig keep for the whole
+ * process once a plot has been drawn (cairo_debug_reset_static_data,
+ * FcFini), so that memory checkers see no leak. Call it only at exit,
+ * when nothing else in the process uses cairo or fontconfig any more. */
+VG_API void vg_plot_cleanup(void);
+
+/* ---- saved run directories --------------------------------------------- */
+
+/* One suite as saved in a run directory. */
+typedef struct vg_saved_suite {
+    char *id;
+    vg_task task;
+    size_t n_items;
+    char **words;            /* n_items * 4: word1, word2, word3, expected */
+    double *rating;          /* similarity: n_items */
+    char **sha256;           /* from run.json: the suite files' digests */
+    size_t n_files;
+} vg_saved_suite;
+
+/* A set's headline score on a suite, from scores.csv (or, for an analogy
+ * suite without a 3cosadd row, the accuracy over answered questions from
+ * items.csv, without interval). */
+typedef struct vg_saved_score {
+    const char *metric;      /* "spearman" or "3cosadd" (static) */
+    double value, low, high; /* NaN where absent */
+    char *interval;          /* ci_method ("" if none) */
+    size_t n_items, n_used;
+} vg_saved_score;
+
+/* A run directory read back: run.json, scores.csv and items.csv. */
+typedef struct vg_saved_run {
+    char *dir;
+    char *utc_time;          /* from run.json ("" if absent) */
+    char *command_line;
+    uint64_t seed;
+    size_t bootstrap;
+    double level;
+    size_t n_sets;
+    char **labels;           /* n_sets, from run.json's vector_sets */
+    size_t n_suites;
+    vg_saved_suite *suites;  /* in run.json's order */
+    double **cosine;         /* [set * n_suites + k]: similarity cosines, NaN unscored */
+    signed char **correct;   /* [(set * n_suites + k) * VG_METHOD_COUNT + m] */
+    vg_saved_score *scores;  /* [set * n_suites + k] */
+    void *priv_;             /* the tables read; not API */
+} vg_saved_run;
+
+/* Read the run directory dir. Every item of every set on every suite must
+ * be in items.csv exactly once, its words and rating the same for every
+ * set. VG_EIO when a file is missing, VG_EFORMAT (file and line) when a
+ * file does not hold what vecgauge writes. *out is freed with
+ * vg_saved_run_free. */
+VG_API vg_status vg_saved_run_load(const char *dir, vg_saved_run **out, vg_error *err);
+
+/* NULL does nothing. */
+VG_API void vg_saved_run_free(vg_saved_run *r);
+
+/* Replace the label of set s (a copy of label is made). VG_ENOMEM. */
+VG_API vg_status vg_saved_run_relabel(vg_saved_run *r, size_t s, const char *label,
+                                      vg_error *err);
+
+/* Pair the sets of n runs item by item, runs in order, sets in each run's
+ * order. strict = 1: every run must hold the same suites (same ids in any
+ * order, taken in the first run's order); strict = 0: only the suites
+ * every run holds are paired (in the first run's order). A suite paired
+ * must agree in every run: task, item count, the words and rating of each
+ * item, and the sha256 of its files; else VG_EINVAL naming the suite, the
+ * runs and the first difference. Two sets with the same label are
+ * VG_EINVAL. *out borrows from the runs (which must outlive it) and is
+ * freed with vg_paired_items_free. */
+VG_API vg_status vg_saved_runs_pair(const vg_saved_run *const *runs, size_t n, int strict,
+                                    vg_paired_items **out, vg_error *err);
+
+/* ---- merging run directories ------------------------------------------- */
+
+/* The files of a merged run directory, each written to fp, labels as in
+ * the runs (relabel them first). The runs must pair strictly
+ * (vg_saved_runs_pair). scores.csv, intervals.csv, items.csv and
+ * missing.csv are the runs' rows in order; agreement.csv is the first
+ * run's (it depends on the suites alone). */
+VG_API vg_status vg_merge_csv(const vg_saved_run *const *runs, size_t n, const char *name,
+                              FILE *fp, const char *path, vg_error *err);
+
+/* run.json of the merged directory: the first run's suites and settings,
+ * every run's vector sets (with their labels now), and "merged_from":
+ * each run's directory, time and command line. prov is this command's
+ * provenance. */
+VG_API vg_status vg_merge_run_json(const vg_saved_run *const *runs, size_t n,
+                                   const vg_provenance *prov, FILE *fp, const char *path,
+                                   vg_error *err);
+
+/* summary.md of the merged directory: the headline score of every set on
+ * every suite with its interval, and where each set came from. */
+VG_API vg_status vg_merge_summary_md(const vg_saved_run *const *runs, size_t n,
+                                     const vg_provenance *prov, FILE *fp, const char *path,
+                                     vg_error *err);
+
+/* ---- a comparison directory (vecgauge compare) ------------------------- */
+
+/* summary.md of a comparison of saved runs: the scores of every set on
+ * the compared items, the comparison section (vg_report_comparison_md),
+ * the runs compared and the provenance. prov may be NULL. */
+VG_API vg_status vg_report_compare_summary_md(const vg_comparisons *c,
+                                              const vg_saved_run *const *runs, size_t n,
+                                              const vg_provenance *prov, FILE *fp,
+                                              const char *path, vg_error *err);
+
+/* compare.json (through jansson): tool, time, command line, the options
+ * in effect, and each run compared (directory, time, command, sets). */
+VG_API vg_status vg_report_compare_json(const vg_comparisons *c, const vg_saved_run *const *runs,
+                                        size_t n, const vg_provenance *prov, FILE *fp,
+                                        const char *path, vg_error *err);
+
+/* ---- training history -------------------------------------------------- */
+
+/* One line of a history file: a set's headline score on a suite at a
+ * step of training. */
+typedef struct vg_history_row {
+    uint64_t step;
+    const char *run;         /* the run directory, as recorded */
+    const char *vectors;
+    const char *suite;
+    vg_task task;
+    const char *metric;
+    double value, low, high;
+    const char *interval;
+    size_t n_items, n_used;
+    const char *recorded;    /* UTC time of the append */
+    uint64_t line;           /* line in the file (0 for a new row) */
+} vg_history_row;
+
+/* The header line of a history file, without the newline. */
+VG_API const char *vg_history_header(void);
+
+/* An open history, locked. */
+typedef struct vg_history {
+    char *path;
+    vg_history_row *rows;
+    size_t n_rows;
+    void *priv_;
+} vg_history;
+
+/* Open path for appending (created, with mode 0666 & ~umask, if absent),
+ * take an exclusive flock(2) on it, waiting for other holders, and read
+ * every row. Rows are checked: the header must be vg_history_header(),
+ * every line complete, steps and counts whole numbers; VG_EFORMAT with
+ * the line otherwise (the file is never repaired or rewritten). The lock
+ * is held until vg_history_close. */
+VG_API vg_status vg_history_open(const char *path, vg_history **out, vg_error *err);
+
+/* Append rows (the header first when the file is empty) with one
+ * write(2) on the O_APPEND descriptor, so a crash leaves either all of
+ * them or none. VG_EIO when the write fails or is short. */
+VG_API vg_status vg_history_append(vg_history *h, const vg_history_row *rows, size_t n,
+                                   vg_error *err);
+
+/* Release the lock, close and free. NULL does nothing. */
+VG_API void vg_history_close(vg_history *h);
+
+/* One point of a suite's curve in a track plot. */
+typedef struct vg_track_point {
+    double step;
+    double value, low, high; /* low/high NaN: no band at that point */
+    int current;             /* the run just tracked */
+    int best;                /* the best earlier run (the reference) */
+    int regressed;           /* significantly below a reference */
+} vg_track_point;
+
+/* Plot a suite's score against step with the interval as a band, the
+ * current run and the best earlier run marked; SVG and PNG as for
+ * vg_plot_comparison. */
+VG_API vg_status vg_plot_track(const char *suite, const char *metric, const char *ylabel,
+                               const vg_track_point *pts, size_t n, const char *svg_path,
+                               const char *png_path, vg_error *err);
+
+#ifdef __cplusplus
+}
+#endif
+
+#endif /* VG_COMPARE_H */

@@ -1,0 +1,27 @@
+/* saved_impl.h - what the readers of saved runs share (merge, pairing).
+ * Part of vecgauge; MIT licence, see LICENSE.
+ */
+#ifndef VG_SAVED_IMPL_H
+#define VG_SAVED_IMPL_H
+
+#include <jansson.h>
+
+#include "../common/csvread.h"
+#include "../common/internal.h"
+#include "vecgauge/compare.h"
+
+/* run.json as read (owned by r). */
+VG_INTERNAL json_t *vg_saved_json(const vg_saved_run *r);
+
+/* A CSV table of the run ("items.csv", "scores.csv", "intervals.csv",
+ * "agreement.csv", "missing.csv"), or NULL when the run has none. */
+VG_INTERNAL vg_csv_table *vg_saved_table(const vg_saved_run *r, const char *name);
+
+/* The set whose label in the run's own files is label (before any
+ * relabelling), or -1. */
+VG_INTERNAL long vg_saved_original_set(const vg_saved_run *r, const char *label);
+
+/* dir/name in a new string (vg_free), or NULL. */
+VG_INTERNAL char *vg_saved_path(const char *dir, const char *name);
+
+#endif /* VG_SAVED_IMPL_H */
