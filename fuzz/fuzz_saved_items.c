@@ -20,38 +20,16 @@ static const char scores_csv[] =
     "vectors,suite,subset,task,metric,value,ci_low,ci_high,ci_method,n_items,n_used,coverage\n"
     "set-a,sim,,similarity,spearman,0.5,,,,3,3,1\nset-b,sim,,similarity,spearman,0.5,,,,3,3,1\n";
 
-static void put(const char *dir, const char *name, const void *data, size_t n) {
-    char p[4200];
-    snprintf(p, sizeof p, "%s/%s", dir, name);
-    FILE *fp = fopen(p, "wb");
-    if (!fp) return;
-    fwrite(data, 1, n, fp);
-    fclose(fp);
-}
-
-/* One scratch run directory for the whole process, removed at exit. */
-static char dir[64];
-
-static void remove_dir(void) {
-    const char *names[] = {"run.json", "scores.csv", "items.csv"};
-    char p[4200];
-    for (int i = 0; i < 3; i++) {
-        snprintf(p, sizeof p, "%s/%s", dir, names[i]);
-        unlink(p);
-    }
-    rmdir(dir);
-}
-
 int LLVMFuzzerTestOneInput(const uint8_t *data, size_t size) {
-    if (!dir[0]) {
-        const char *tmp = getenv("TMPDIR");
-        snprintf(dir, sizeof dir, "%s/vgfuzz-run-XXXXXX", tmp && *tmp && strlen(tmp) < 40 ? tmp : "/tmp");
-        if (!mkdtemp(dir)) return 0;
-        atexit(remove_dir);
-        put(dir, "run.json", run_json, strlen(run_json));
-        put(dir, "scores.csv", scores_csv, strlen(scores_csv));
+    static int ready;
+    if (!ready) {
+        if (vg_fuzz_put("run.json", run_json, strlen(run_json)) != 0 ||
+            vg_fuzz_put("scores.csv", scores_csv, strlen(scores_csv)) != 0)
+            return 0;
+        ready = 1;
     }
-    put(dir, "items.csv", data, size);
+    if (vg_fuzz_put("items.csv", data, size) != 0) return 0;
+    const char *dir = vg_fuzz_scratch_dir();
     vg_saved_run *r = NULL;
     vg_paired_items *p = NULL;
     vg_comparisons *c = NULL;
@@ -68,8 +46,7 @@ int LLVMFuzzerTestOneInput(const uint8_t *data, size_t size) {
             vg_compare(p, &o, &c, &err);
         }
     }
-    char buf[1200];
-    vg_error_format(&err, buf, sizeof buf);
+    vg_fuzz_format_error(&err);
     vg_comparisons_free(c);
     vg_paired_items_free(p);
     vg_saved_run_free(r);

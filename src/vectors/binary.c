@@ -67,7 +67,10 @@ static vg_status read_mapped(vg_src *src, size_t size, const vg_detect *d,
     b.opt = opt;
     b.conv = conv_le32;
     b.threads = vg_threads_resolve(opt->threads);
-    b.cap = BATCH_BYTES / (rb + 2) + 1;
+    /* A row takes at least rb + 2 bytes (a word, a space, the values), so
+     * a batch holds no more rows than that divides into its bytes or into
+     * the whole file (a small file must not cost a batch-sized table). */
+    b.cap = VG_MIN(BATCH_BYTES, size) / (rb + 2) + 1;
     b.rows = vg_calloc(b.cap, sizeof *b.rows);
     /* Two windows: the hashing thread hashes one while the next fills. */
     char *wins[2] = {vg_bigbuf_alloc(wcap + VG_SRC_PAD), vg_bigbuf_alloc(wcap + VG_SRC_PAD)};

@@ -267,7 +267,8 @@ static vg_status read_c_mapped(vg_src *src, const char *data, const vg_npy_heade
     }
     b.conv_note = " (or beyond float32's range)";
     b.threads = vg_threads_resolve(opt->threads);
-    b.cap = ((size_t)8 << 20) / rb + 1;
+    /* 8 MB of rows a batch, and never more rows than the file has. */
+    b.cap = VG_MIN(((size_t)8 << 20) / rb, rows) + 1;
     b.rows = vg_calloc(b.cap, sizeof *b.rows);
     if (!b.rows) return vg_error_set(err, VG_ENOMEM, path, 0, "out of memory");
     vg_status st = vg_src_start(src, 0, 0, err);

@@ -143,11 +143,9 @@ for cmd in compare score score-plots; do
     if [ $cmd = compare ]; then args=(compare --out "$TMP/int-$cmd" "$TMP/abc"); else
         args=(score --bootstrap 50 --pairs "$P" --out "$TMP/int-$cmd" "${sets[@]}"); fi
     VECGAUGE_TEST_SLOW_WRITE=1 "$VG_BIN" "${args[@]}" > /dev/null 2>&1 &
-    pid=$!
-    if [ $cmd = score-plots ]; then sleep 2.1; else sleep 1.1; fi
-    kill -s INT "$pid"
-    wait "$pid"
-    st=$?
+    if [ $cmd = score-plots ]; then glob="$TMP/.int-$cmd.tmp-*/plots/*.png"; else
+        glob="$TMP/.int-$cmd.tmp-*"; fi
+    interrupt_while_writing INT $! "$glob"
     left=$(ls -a "$TMP" | grep -c "int-$cmd")
     check "cmp-9 ($cmd): SIGINT mid-write exits 130 and leaves nothing (status $st, $left entries)" \
         test "$st" -eq 130 -a "$left" -eq 0

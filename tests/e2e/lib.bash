@@ -47,4 +47,22 @@ expect_in() {
 # have_shared DIR: 0 when ../shared/public-benchmarks/DIR is present.
 have_shared() { [ -d "$SHARED/${1:-}" ]; }
 
+# interrupt_while_writing SIG PID TEMP_GLOB: send SIG to PID as soon as a
+# path matching TEMP_GLOB (a run directory's temporary, or a file inside
+# it) exists, polling every 20 ms for at most 60 s; then wait for PID and
+# leave its exit status in $st. With VECGAUGE_TEST_SLOW_WRITE=1 the
+# command pauses 200 ms before each file, so the signal lands mid-write
+# however loaded the machine is (a fixed sleep does not).
+interrupt_while_writing() {
+    local sig=$1 pid=$2 glob=$3 i
+    for i in $(seq 1 3000); do
+        compgen -G "$glob" > /dev/null && break
+        kill -0 "$pid" 2> /dev/null || break
+        sleep 0.02
+    done
+    kill -s "$sig" "$pid" 2> /dev/null
+    wait "$pid"
+    st=$?
+}
+
 done_testing() { echo "1..$_n"; }

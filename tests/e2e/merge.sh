@@ -69,11 +69,7 @@ expect_status "mrg-5b: --label-from takes only dir" 2 "$VG_BIN" merge --label-fr
 expect_status "mrg-5c: an existing directory is never overwritten" 1 \
     "$VG_BIN" merge --label-from dir --out "$TMP/m1" "$G/job1"
 VECGAUGE_TEST_SLOW_WRITE=1 "$VG_BIN" merge --label-from dir --out "$TMP/m5" "$G"/job* > /dev/null 2>&1 &
-pid=$!
-sleep 0.7
-kill -s INT "$pid"
-wait "$pid"
-st=$?
+interrupt_while_writing INT $! "$TMP/.m5.tmp-*"
 check "mrg-5d: SIGINT mid-merge exits 130 and leaves nothing (status $st)" \
     bash -c "test $st -eq 130 && ! ls -a '$TMP' | grep -q m5"
 expect_status "mrg-5e: rerun refuses a merged directory (its command is not score)" 1 \

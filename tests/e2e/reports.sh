@@ -106,11 +106,8 @@ fi
 for sig in INT TERM; do
     VECGAUGE_TEST_SLOW_WRITE=1 "$VG_BIN" score --pairs "$F/pairs/basic.tsv" --out "$TMP/int-$sig" \
         "$F/vectors/header.txt" > /dev/null 2>&1 &
-    pid=$!
-    sleep 0.5
-    kill -s "$sig" "$pid"
-    wait "$pid"
-    status=$?
+    interrupt_while_writing "$sig" $! "$TMP/.int-$sig.tmp-*"
+    status=$st
     left=$(ls -A "$TMP" | grep -c "int-$sig" || true)
     if [ "$status" -ne 0 ] && [ "$left" -eq 0 ]; then ok "SIG$sig during writing: exit $status, nothing left"; else
         not_ok "SIG$sig during writing left $left entries (exit $status)"; fi

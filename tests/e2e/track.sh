@@ -132,11 +132,27 @@ check "trk-10b: the report holds comparison.csv, summary.md and both plots" \
 expect_in "trk-10c: the summary names the regression" "Significant regression" "$W/rep2/summary.md"
 VECGAUGE_TEST_SLOW_WRITE=1 "$VG_BIN" track --history "$W/rep.csv" --step 3 --no-plots \
     --out "$W/rep3" "$W/ckpt4" > /dev/null 2>&1 &
-pid=$!
-sleep 0.3
-kill -s INT "$pid"
-wait "$pid"
-st=$?
+interrupt_while_writing INT $! "$W/.rep3.tmp-*"
 check "trk-10d: interrupted while writing --out: status $st, no report directory left" \
     bash -c "test $st -eq 130 && ! ls -a '$W' | grep -q 'rep3'"
+
+# trk-11: SIGINT or SIGTERM while track holds the history's lock (before
+# its one-write append) leaves the history byte for byte as it was. The
+# lock being held is seen with flock(1) -n failing (util-linux).
+for sig in INT TERM; do
+    cp "$W/rep.csv" "$W/rep-before.csv"
+    VECGAUGE_TEST_SLOW_WRITE=1 "$VG_BIN" track --history "$W/rep.csv" --no-plots "$W/ckpt3" \
+        > /dev/null 2>&1 &
+    pid=$!
+    for _ in $(seq 1 3000); do
+        flock -n "$W/rep.csv" true 2> /dev/null || break
+        kill -0 "$pid" 2> /dev/null || break
+        sleep 0.01
+    done
+    kill -s "$sig" "$pid" 2> /dev/null
+    wait "$pid"
+    st=$?
+    check "trk-11 ($sig): interrupted under the lock: killed (status $st), history unchanged" \
+        bash -c "test $st -ge 128 && cmp -s '$W/rep.csv' '$W/rep-before.csv'"
+done
 done_testing
