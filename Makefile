@@ -52,9 +52,10 @@ LDLIBS    = -lgsl $(PKG_LIBS) -lcsv -lunistring -lm
 # changes so that an unchanged tree does not rebuild.
 GIT_DESCRIBE := $(shell git describe --always --dirty --tags 2>/dev/null)
 GITDESC_H = $(BUILD)/gen/vg_gitdesc.h
-$(shell mkdir -p $(BUILD)/gen; \
-  printf '#define VG_GIT_DESCRIBE "%s"\n' '$(GIT_DESCRIBE)' > $(GITDESC_H).new; \
-  cmp -s $(GITDESC_H).new $(GITDESC_H) || mv $(GITDESC_H).new $(GITDESC_H); rm -f $(GITDESC_H).new)
+# (A temporary name per make process: two makes may run at once.)
+$(shell mkdir -p $(BUILD)/gen; t=$(GITDESC_H).new.$$$$; \
+  printf '#define VG_GIT_DESCRIBE "%s"\n' '$(GIT_DESCRIBE)' > $$t; \
+  cmp -s $$t $(GITDESC_H) || mv $$t $(GITDESC_H); rm -f $$t)
 
 # ---- the library, by the stage the data flows through --------------------
 COMMON_O  = common/error.o common/alloc.o common/arena.o common/strmap.o \
@@ -77,12 +78,12 @@ COMPARE_O = compare/compare.o compare/compare_similarity.o compare/compare_analo
             compare/paired_items.o compare/saved_run.o compare/saved_pair.o compare/merge.o
 REPORT_O  = report/csvout.o report/summary_md.o report/summary_similarity.o \
             report/summary_analogy.o report/text_table.o report/rundir.o report/intervals.o \
-            report/items_csv.o report/latex.o report/run_json.o report/run_record.o
+            report/items_csv.o report/latex.o report/json_text.o report/run_json.o report/run_record.o
 REPORT_O += report/comparison_csv.o report/comparison_md.o report/comparison_json.o report/plot.o \
             report/plot_compare.o report/plot_track.o report/history.o
 CLI_O     = cli/main.o cli/util.o cli/signals.o cli/run_output.o cli/cmd_score.o \
             cli/cmd_rerun.o cli/cmd_suites.o cli/cmd_fetch.o cli/cmd_inspect.o \
-            cli/loadopts.o cli/progress.o
+            cli/loadopts.o cli/statopts.o cli/progress.o
 CLI_O    += cli/cmd_compare.o cli/cmd_track.o cli/cmd_merge.o
 
 LIB_O = $(addprefix $(BUILD)/obj/,$(COMMON_O) $(VECTORS_O) $(SUITES_O) $(FETCH_O) \

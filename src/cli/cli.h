@@ -95,6 +95,38 @@ extern const char vg_cli_load_help[];
 int vg_cli_load_option(const char *command, int c, const char *arg, vg_load_options *lo,
                        int *progress, int *rc);
 
+/* The statistics options of score, compare and track (getopt_long ids;
+ * --threads is 'j'). A command lists the groups it takes in its option
+ * table; vg_cli_stats_option parses any of them. */
+enum {
+    VG_OPT_SEED = 600,
+    VG_OPT_BOOT,
+    VG_OPT_CI,
+    VG_OPT_ALPHA,
+    VG_OPT_NO_COMMON,
+    VG_OPT_METHODS
+};
+#define VG_CLI_BOOT_LONG_OPTIONS                                   \
+    {"seed", required_argument, NULL, VG_OPT_SEED},                \
+    {"bootstrap", required_argument, NULL, VG_OPT_BOOT},           \
+    {"ci", required_argument, NULL, VG_OPT_CI},                    \
+    {"threads", required_argument, NULL, 'j'}
+#define VG_CLI_ALPHA_LONG_OPTION {"alpha", required_argument, NULL, VG_OPT_ALPHA}
+#define VG_CLI_ITEMS_LONG_OPTIONS                                  \
+    {"no-common", no_argument, NULL, VG_OPT_NO_COMMON},            \
+    {"methods", required_argument, NULL, VG_OPT_METHODS}
+/* Their values, starting from vg_compare_options_init's defaults; the
+ * have_ flags say which bootstrap settings were given (compare and track
+ * otherwise take them from the saved runs). */
+typedef struct vg_cli_stats {
+    vg_compare_options cmp;
+    int have_seed, have_boot, have_ci;
+} vg_cli_stats;
+void vg_cli_stats_init(vg_cli_stats *s);
+/* Apply option c (argument arg) to *s. Returns 1 when c is one of them,
+ * 0 when it is not, -1 after a usage error (*rc set). */
+int vg_cli_stats_option(const char *command, int c, const char *arg, vg_cli_stats *s, int *rc);
+
 /* Write every file of a run directory into dir (temporary, then renamed);
  * prints the error and returns VG_EXIT_FAIL on failure. */
 int vg_cli_write_run(const char *dir, const vg_results *res, const vg_provenance *prov);

@@ -242,77 +242,36 @@ static vg_status plots_cb(vg_rundir *rd, void *ctx, vg_error *err) {
     return vg_cli_write_plots(rd, ((compare_ctx *)ctx)->cmp, err);
 }
 
-enum { OPT_ALPHA = 256, OPT_NO_COMMON, OPT_METHODS, OPT_LABEL_FROM, OPT_SEED, OPT_BOOT, OPT_CI };
+enum { OPT_LABEL_FROM = 256 };
 
 static const struct option long_opts[] = {
     {"out", required_argument, NULL, 'o'},
-    {"alpha", required_argument, NULL, OPT_ALPHA},
-    {"no-common", no_argument, NULL, OPT_NO_COMMON},
-    {"methods", required_argument, NULL, OPT_METHODS},
+    VG_CLI_ALPHA_LONG_OPTION,
+    VG_CLI_ITEMS_LONG_OPTIONS,
     {"label-from", required_argument, NULL, OPT_LABEL_FROM},
-    {"seed", required_argument, NULL, OPT_SEED},
-    {"bootstrap", required_argument, NULL, OPT_BOOT},
-    {"ci", required_argument, NULL, OPT_CI},
-    {"threads", required_argument, NULL, 'j'},
+    VG_CLI_BOOT_LONG_OPTIONS,
     {"help", no_argument, NULL, 'h'},
     {NULL, 0, NULL, 0}};
 
 int vg_cmd_compare(int argc, char **argv) {
+    vg_cli_stats so;
+    vg_cli_stats_init(&so);
     vg_compare_options o;
-    vg_compare_options_init(&o);
     const char *out = NULL;
-    int label_dir = 0, have_seed = 0, have_boot = 0, have_ci = 0;
-    uint64_t u;
-    double d;
+    int label_dir = 0;
     optind = 1;
     opterr = 0;
     int c;
     while ((c = getopt_long(argc, argv, ":o:j:h", long_opts, NULL)) != -1) {
+        int urc, handled = vg_cli_stats_option("compare", c, optarg, &so, &urc);
+        if (handled < 0) return urc;
+        if (handled) continue;
         switch (c) {
         case 'o': out = optarg; break;
-        case OPT_ALPHA:
-            if (vg_cli_parse_double(optarg, 0, 1, &d) != 0 || d <= 0 || d >= 1)
-                return vg_cli_usage_error("compare", "--alpha needs a level between 0 and 1 "
-                                          "(e.g. 0.05), got '%s'", optarg);
-            o.alpha = d;
-            break;
-        case OPT_NO_COMMON: o.items = VG_COMPARE_AS_IS; break;
-        case OPT_METHODS:
-            if (vg_cli_parse_methods(optarg, &o.methods) != 0)
-                return vg_cli_usage_error("compare", "--methods takes 3cosadd, 3cosmul, pairdir "
-                                          "or only_b, comma-separated; got '%s'", optarg);
-            break;
         case OPT_LABEL_FROM:
             if (strcmp(optarg, "dir") != 0)
                 return vg_cli_usage_error("compare", "--label-from takes 'dir', got '%s'", optarg);
             label_dir = 1;
-            break;
-        case OPT_SEED:
-            if (vg_cli_parse_u64(optarg, 0, UINT64_MAX, &u) != 0)
-                return vg_cli_usage_error("compare", "--seed needs a non-negative integer, got '%s'",
-                                          optarg);
-            o.seed = u;
-            have_seed = 1;
-            break;
-        case OPT_BOOT:
-            if (vg_cli_parse_u64(optarg, 0, 10000000, &u) != 0)
-                return vg_cli_usage_error("compare", "--bootstrap needs an integer 0..10000000, "
-                                          "got '%s'", optarg);
-            o.replicates = (size_t)u;
-            have_boot = 1;
-            break;
-        case OPT_CI:
-            if (vg_cli_parse_double(optarg, 0, 1, &d) != 0 || d <= 0 || d >= 1)
-                return vg_cli_usage_error("compare", "--ci needs a level between 0 and 1 (e.g. "
-                                          "0.95), got '%s'", optarg);
-            o.level = d;
-            have_ci = 1;
-            break;
-        case 'j':
-            if (vg_cli_parse_u64(optarg, 1, 1024, &u) != 0)
-                return vg_cli_usage_error("compare", "--threads needs an integer 1..1024, got '%s'",
-                                          optarg);
-            o.threads = (unsigned)u;
             break;
         case 'h': fputs(compare_help, stdout); return VG_EXIT_OK;
         case ':':
@@ -320,6 +279,8 @@ int vg_cmd_compare(int argc, char **argv) {
         default: return vg_cli_usage_error("compare", "unknown option '%s'", argv[optind - 1]);
         }
     }
+    o = so.cmp;
+    int have_seed = so.have_seed, have_boot = so.have_boot, have_ci = so.have_ci;
     size_t n = (size_t)(argc - optind);
     if (n == 0) return vg_cli_usage_error("compare", "no run directory given");
     vg_saved_run **runs = vg_cli_load_runs(argv + optind, n, label_dir);

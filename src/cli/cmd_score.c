@@ -80,11 +80,10 @@ typedef struct score_args {
     char data_used[VG_ERROR_PATH_MAX]; /* the data directory read, "" if none */
     vg_load_options load;
     int progress;
-    vg_compare_options cmp;   /* alpha, items, methods for several sets */
+    vg_cli_stats stats;       /* bootstrap settings; alpha, items, methods for several sets */
 } score_args;
 
-enum { OPT_FOLD = 256, OPT_SEED, OPT_BOOT, OPT_DATA, OPT_MANIFEST, OPT_CI, OPT_ANALOGY_VOCAB,
-       OPT_KEEP_QWORDS, OPT_ALPHA, OPT_NO_COMMON, OPT_METHODS };
+enum { OPT_FOLD = 256, OPT_DATA, OPT_MANIFEST, OPT_ANALOGY_VOCAB, OPT_KEEP_QWORDS };
 
 static const struct option long_opts[] = {
     {"suite", required_argument, NULL, 's'},
@@ -94,15 +93,11 @@ static const struct option long_opts[] = {
     {"manifest", required_argument, NULL, OPT_MANIFEST},
     {"out", required_argument, NULL, 'o'},
     {"fold-case", no_argument, NULL, OPT_FOLD},
-    {"seed", required_argument, NULL, OPT_SEED},
-    {"bootstrap", required_argument, NULL, OPT_BOOT},
-    {"ci", required_argument, NULL, OPT_CI},
+    VG_CLI_BOOT_LONG_OPTIONS,
     {"analogy-vocab", required_argument, NULL, OPT_ANALOGY_VOCAB},
     {"keep-question-words", no_argument, NULL, OPT_KEEP_QWORDS},
-    {"threads", required_argument, NULL, 'j'},
-    {"alpha", required_argument, NULL, OPT_ALPHA},
-    {"no-common", no_argument, NULL, OPT_NO_COMMON},
-    {"methods", required_argument, NULL, OPT_METHODS},
+    VG_CLI_ALPHA_LONG_OPTION,
+    VG_CLI_ITEMS_LONG_OPTIONS,
     {"help", no_argument, NULL, 'h'},
     VG_CLI_LOAD_LONG_OPTIONS,
     {NULL, 0, NULL, 0}};
@@ -160,13 +155,13 @@ static size_t score_settings(score_args *a, int compared, vg_setting *st, char b
     if (a->manifest) st[n++] = (vg_setting){"manifest", a->manifest, VG_SETTING_STRING};
     if (compared) {
         /* The comparison's own options, when several sets were compared. */
-        snprintf(bufs[n], 32, "%.17g", a->cmp.alpha);
+        snprintf(bufs[n], 32, "%.17g", a->stats.cmp.alpha);
         st[n] = (vg_setting){"alpha", bufs[n], VG_SETTING_REAL};
         n++;
-        st[n++] = (vg_setting){"no-common", a->cmp.items == VG_COMPARE_AS_IS ? "1" : "0",
+        st[n++] = (vg_setting){"no-common", a->stats.cmp.items == VG_COMPARE_AS_IS ? "1" : "0",
                                VG_SETTING_BOOL};
         bufs[n][0] = '\0';
-        unsigned ms = a->cmp.methods ? a->cmp.methods : 1u << VG_METHOD_3COSADD;
+        unsigned ms = a->stats.cmp.methods ? a->stats.cmp.methods : 1u << VG_METHOD_3COSADD;
         for (int m = 0; m < VG_METHOD_COUNT; m++)
             if (ms & (1u << m))
                 snprintf(bufs[n] + strlen(bufs[n]), 32 - strlen(bufs[n]), "%s%s",
@@ -302,7 +297,7 @@ int vg_cmd_score(int argc, char **argv) {
     vg_eval_options_init(&a.eval);
     vg_load_options_init(&a.load);
     a.progress = 1;
-    vg_compare_options_init(&a.cmp);
+    vg_cli_stats_init(&a.stats);
     int rc = VG_EXIT_FAIL;
     optind = 1;
     opterr = 0;
@@ -310,6 +305,7 @@ int vg_cmd_score(int argc, char **argv) {
     uint64_t u;
     while ((c = getopt_long(argc, argv, ":s:p:a:o:j:h", long_opts, NULL)) != -1) {
         int handled = vg_cli_load_option("score", c, optarg, &a.load, &a.progress, &rc);
+        if (handled == 0) handled = vg_cli_stats_option("score", c, optarg, &a.stats, &rc);
         if (handled < 0) goto done;
         if (handled) continue;
         switch (c) {
@@ -336,56 +332,6 @@ int vg_cmd_score(int argc, char **argv) {
             break;
         case 'o': a.out = optarg; break;
         case OPT_FOLD: a.eval.score.fold_case = 1; break;
-        case OPT_SEED:
-            if (vg_cli_parse_u64(optarg, 0, UINT64_MAX, &u) != 0) {
-                rc = vg_cli_usage_error("score", "--seed needs a non-negative integer, got '%s'", optarg);
-                goto done;
-            }
-            a.eval.seed = u;
-            break;
-        case OPT_BOOT:
-            if (vg_cli_parse_u64(optarg, 0, 10000000, &u) != 0) {
-                rc = vg_cli_usage_error("score", "--bootstrap needs an integer 0..10000000, got '%s'",
-                                        optarg);
-                goto done;
-            }
-            a.eval.bootstrap = (size_t)u;
-            break;
-        case OPT_CI: {
-            double lv;
-            if (vg_cli_parse_double(optarg, 0, 1, &lv) != 0 || lv <= 0 || lv >= 1) {
-                rc = vg_cli_usage_error("score", "--ci needs a level between 0 and 1 (e.g. 0.95), got '%s'",
-                                        optarg);
-                goto done;
-            }
-            a.eval.ci = lv;
-            break;
-        }
-        case 'j':
-            if (vg_cli_parse_u64(optarg, 1, 1024, &u) != 0) {
-                rc = vg_cli_usage_error("score", "--threads needs an integer 1..1024, got '%s'", optarg);
-                goto done;
-            }
-            a.eval.score.threads = (unsigned)u;
-            break;
-        case OPT_ALPHA: {
-            double al;
-            if (vg_cli_parse_double(optarg, 0, 1, &al) != 0 || al <= 0 || al >= 1) {
-                rc = vg_cli_usage_error("score", "--alpha needs a level between 0 and 1 (e.g. 0.05), "
-                                        "got '%s'", optarg);
-                goto done;
-            }
-            a.cmp.alpha = al;
-            break;
-        }
-        case OPT_NO_COMMON: a.cmp.items = VG_COMPARE_AS_IS; break;
-        case OPT_METHODS:
-            if (vg_cli_parse_methods(optarg, &a.cmp.methods) != 0) {
-                rc = vg_cli_usage_error("score", "--methods takes 3cosadd, 3cosmul, pairdir or "
-                                        "only_b, comma-separated; got '%s'", optarg);
-                goto done;
-            }
-            break;
         case 'h':
             printf(score_help, (unsigned)VG_DEFAULT_SEED, (unsigned)VG_DEFAULT_BOOTSTRAP,
                    VG_DEFAULT_CI, (unsigned)VG_DEFAULT_ANALOGY_VOCAB,
@@ -400,6 +346,11 @@ int vg_cmd_score(int argc, char **argv) {
             goto done;
         }
     }
+    /* The bootstrap settings score with, and compare with (several sets). */
+    a.eval.seed = a.stats.cmp.seed;
+    a.eval.bootstrap = a.stats.cmp.replicates;
+    a.eval.ci = a.stats.cmp.level;
+    a.eval.score.threads = a.stats.cmp.threads;
     int n_sets = argc - optind;
     if (n_sets <= 0) {
         rc = vg_cli_usage_error("score", "no vector set given");
@@ -481,15 +432,11 @@ int vg_cmd_score(int argc, char **argv) {
     if (n_sets >= 2) {
         /* Several sets: compare them item by item, on the same resamples
          * as their intervals. */
-        a.cmp.replicates = a.eval.bootstrap;
-        a.cmp.seed = a.eval.seed;
-        a.cmp.level = a.eval.ci;
-        a.cmp.threads = a.eval.score.threads;
-        if (a.cmp.items == VG_COMPARE_AS_IS)
+        if (a.stats.cmp.items == VG_COMPARE_AS_IS)
             fprintf(stderr, "%s: warning: --no-common: each set is compared on the items it "
                     "covers; differences mix vector quality with coverage\n", vg_cli_progname);
         if (vg_paired_items_from_results(res, &paired, &err) != VG_OK ||
-            vg_compare(paired, &a.cmp, &cmp, &err) != VG_OK) {
+            vg_compare(paired, &a.stats.cmp, &cmp, &err) != VG_OK) {
             vg_cli_error(&err);
             goto cleanup;
         }

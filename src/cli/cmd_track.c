@@ -50,22 +50,18 @@ static const char track_help[] =
     "status: 0 no significant regression, 3 a significant regression with\n"
     "--fail-on-regression (the suites are named), 1 an error (nothing appended).\n";
 
-enum { OPT_HISTORY = 256, OPT_STEP, OPT_VECTORS, OPT_FAIL, OPT_ALPHA, OPT_PLOTS, OPT_NO_PLOTS,
-       OPT_SEED, OPT_BOOT, OPT_CI };
+enum { OPT_HISTORY = 256, OPT_STEP, OPT_VECTORS, OPT_FAIL, OPT_PLOTS, OPT_NO_PLOTS };
 
 static const struct option long_opts[] = {
     {"history", required_argument, NULL, OPT_HISTORY},
     {"step", required_argument, NULL, OPT_STEP},
     {"vectors", required_argument, NULL, OPT_VECTORS},
     {"fail-on-regression", no_argument, NULL, OPT_FAIL},
-    {"alpha", required_argument, NULL, OPT_ALPHA},
+    VG_CLI_ALPHA_LONG_OPTION,
     {"plots", required_argument, NULL, OPT_PLOTS},
     {"no-plots", no_argument, NULL, OPT_NO_PLOTS},
     {"out", required_argument, NULL, 'o'},
-    {"seed", required_argument, NULL, OPT_SEED},
-    {"bootstrap", required_argument, NULL, OPT_BOOT},
-    {"ci", required_argument, NULL, OPT_CI},
-    {"threads", required_argument, NULL, 'j'},
+    VG_CLI_BOOT_LONG_OPTIONS,
     {"help", no_argument, NULL, 'h'},
     {NULL, 0, NULL, 0}};
 
@@ -427,16 +423,19 @@ static vg_status report_plots(vg_rundir *rd, void *ctx, vg_error *err) {
 /* ---- the command -------------------------------------------------------- */
 
 int vg_cmd_track(int argc, char **argv) {
+    vg_cli_stats so;
+    vg_cli_stats_init(&so);
     vg_compare_options o;
-    vg_compare_options_init(&o);
     const char *history = NULL, *vectors = NULL, *plots = NULL, *out = NULL;
-    int fail_on_reg = 0, no_plots = 0, have_step = 0, have_seed = 0, have_boot = 0, have_ci = 0;
-    uint64_t u, step = 0;
-    double d;
+    int fail_on_reg = 0, no_plots = 0, have_step = 0;
+    uint64_t step = 0;
     optind = 1;
     opterr = 0;
     int c;
     while ((c = getopt_long(argc, argv, ":o:j:h", long_opts, NULL)) != -1) {
+        int urc, handled = vg_cli_stats_option("track", c, optarg, &so, &urc);
+        if (handled < 0) return urc;
+        if (handled) continue;
         switch (c) {
         case OPT_HISTORY: history = optarg; break;
         case OPT_STEP:
@@ -446,48 +445,17 @@ int vg_cmd_track(int argc, char **argv) {
             break;
         case OPT_VECTORS: vectors = optarg; break;
         case OPT_FAIL: fail_on_reg = 1; break;
-        case OPT_ALPHA:
-            if (vg_cli_parse_double(optarg, 0, 1, &d) != 0 || d <= 0 || d >= 1)
-                return vg_cli_usage_error("track", "--alpha needs a level between 0 and 1, got '%s'",
-                                          optarg);
-            o.alpha = d;
-            break;
         case OPT_PLOTS: plots = optarg; break;
         case OPT_NO_PLOTS: no_plots = 1; break;
         case 'o': out = optarg; break;
-        case OPT_SEED:
-            if (vg_cli_parse_u64(optarg, 0, UINT64_MAX, &u) != 0)
-                return vg_cli_usage_error("track", "--seed needs a non-negative integer, got '%s'",
-                                          optarg);
-            o.seed = u;
-            have_seed = 1;
-            break;
-        case OPT_BOOT:
-            if (vg_cli_parse_u64(optarg, 0, 10000000, &u) != 0)
-                return vg_cli_usage_error("track", "--bootstrap needs an integer 0..10000000, got '%s'",
-                                          optarg);
-            o.replicates = (size_t)u;
-            have_boot = 1;
-            break;
-        case OPT_CI:
-            if (vg_cli_parse_double(optarg, 0, 1, &d) != 0 || d <= 0 || d >= 1)
-                return vg_cli_usage_error("track", "--ci needs a level between 0 and 1, got '%s'",
-                                          optarg);
-            o.level = d;
-            have_ci = 1;
-            break;
-        case 'j':
-            if (vg_cli_parse_u64(optarg, 1, 1024, &u) != 0)
-                return vg_cli_usage_error("track", "--threads needs an integer 1..1024, got '%s'",
-                                          optarg);
-            o.threads = (unsigned)u;
-            break;
         case 'h': fputs(track_help, stdout); return VG_EXIT_OK;
         case ':':
             return vg_cli_usage_error("track", "option '%s' needs an argument", argv[optind - 1]);
         default: return vg_cli_usage_error("track", "unknown option '%s'", argv[optind - 1]);
         }
     }
+    o = so.cmp;
+    int have_seed = so.have_seed, have_boot = so.have_boot, have_ci = so.have_ci;
     if (!history) return vg_cli_usage_error("track", "--history FILE is required");
     if (argc - optind != 1)
         return vg_cli_usage_error("track", "expected one run directory, got %d", argc - optind);

@@ -13,6 +13,7 @@
 
 #include "../common/alloc.h"
 #include "../common/numfmt.h"
+#include "../report/json_impl.h"
 #include "../report/report_impl.h"
 #include "saved_impl.h"
 #include "vecgauge/compare.h"
@@ -79,32 +80,16 @@ vg_status vg_merge_csv(const vg_saved_run *const *runs, size_t n, const char *na
     return VG_OK;
 }
 
-/* A JSON string of s, with '?' for bytes that are not UTF-8. */
-static json_t *jstr(const char *s) {
-    json_t *j = json_string(s ? s : "");
-    if (j) return j;
-    size_t n = strlen(s);
-    char *c = vg_malloc(n + 1);
-    if (!c) return NULL;
-    for (size_t i = 0; i <= n; i++) c[i] = (unsigned char)s[i] < 0x80 ? s[i] : '?';
-    j = json_string(c);
-    vg_free(c);
-    return j;
-}
-
 vg_status vg_merge_run_json(const vg_saved_run *const *runs, size_t n, const vg_provenance *prov,
                             FILE *fp, const char *path, vg_error *err) {
     if (n == 0) return vg_error_set(err, VG_EINVAL, path, 0, "no run to merge");
     json_t *root = json_deep_copy(vg_saved_json(runs[0]));
-    json_t *sets = json_array(), *from = json_array(), *argv = json_array();
-    json_t *opts = json_object(), *tool = json_object();
-    if (!root || !sets || !from || !argv || !opts || !tool) {
+    json_t *sets = json_array(), *from = json_array(), *opts = json_object();
+    if (!root || !sets || !from || !opts) {
         json_decref(root);
         json_decref(sets);
         json_decref(from);
-        json_decref(argv);
         json_decref(opts);
-        json_decref(tool);
         return vg_error_set(err, VG_ENOMEM, path, 0, "out of memory");
     }
     for (size_t q = 0; q < n; q++) {
@@ -112,31 +97,23 @@ vg_status vg_merge_run_json(const vg_saved_run *const *runs, size_t n, const vg_
         json_t *labels = json_array();
         for (size_t i = 0; i < runs[q]->n_sets; i++) {
             json_t *o = json_deep_copy(json_array_get(rs, i));
-            if (o) json_object_set_new(o, "label", jstr(runs[q]->labels[i]));
+            if (o) json_object_set_new(o, "label", vg_json_text(runs[q]->labels[i]));
             json_array_append_new(sets, o);
-            json_array_append_new(labels, jstr(runs[q]->labels[i]));
+            json_array_append_new(labels, vg_json_text(runs[q]->labels[i]));
         }
         json_t *src = json_object();
-        json_object_set_new(src, "dir", jstr(runs[q]->dir));
-        json_object_set_new(src, "utc_time", jstr(runs[q]->utc_time));
-        json_object_set_new(src, "command_line", jstr(runs[q]->command_line));
+        json_object_set_new(src, "dir", vg_json_text(runs[q]->dir));
+        json_object_set_new(src, "utc_time", vg_json_text(runs[q]->utc_time));
+        json_object_set_new(src, "command_line", vg_json_text(runs[q]->command_line));
         json_object_set_new(src, "seed", json_integer((json_int_t)runs[q]->seed));
         json_object_set_new(src, "bootstrap_replicates", json_integer((json_int_t)runs[q]->bootstrap));
         json_object_set_new(src, "confidence_level", json_real(runs[q]->level));
         json_object_set_new(src, "vector_sets", labels);
         json_array_append_new(from, src);
     }
-    json_object_set_new(tool, "name", json_string("vecgauge"));
-    json_object_set_new(tool, "version", jstr(prov ? prov->tool_version : ""));
-    json_object_set_new(tool, "git_describe", jstr(prov ? prov->git_describe : ""));
-    for (size_t i = 0; prov && i < prov->argc; i++) json_array_append_new(argv, jstr(prov->argv[i]));
     for (size_t i = 0; prov && i < prov->n_settings; i++)
-        json_object_set_new(opts, prov->settings[i].name, jstr(prov->settings[i].value));
-    json_object_set_new(root, "tool", tool);
-    json_object_set_new(root, "utc_time", jstr(prov ? prov->utc_time : ""));
-    json_object_set_new(root, "command_line", jstr(prov ? prov->command_line : ""));
-    json_object_set_new(root, "cwd", jstr(prov ? prov->cwd : ""));
-    json_object_set_new(root, "argv", argv);
+        json_object_set_new(opts, prov->settings[i].name, vg_json_text(prov->settings[i].value));
+    vg_json_provenance(root, "vecgauge-run 1", prov);
     json_object_set_new(root, "options", opts);
     json_object_set_new(root, "vector_sets", sets);
     json_object_set_new(root, "merged_from", from);
@@ -198,32 +175,9 @@ vg_status vg_merge_summary_md(const vg_saved_run *const *runs, size_t n,
             fputc('\n', fp);
         }
     }
-    fputs("\n## Merged runs\n\n", fp);
-    for (size_t q = 0; q < n; q++) {
-        const vg_saved_run *r = runs[q];
-        fputs("- `", fp);
-        vg_md_cell(fp, r->dir);
-        fprintf(fp, "` (%s, seed %llu, %zu resamples): ", *r->utc_time ? r->utc_time : "time unknown",
-                (unsigned long long)r->seed, r->bootstrap);
-        for (size_t i = 0; i < r->n_sets; i++) {
-            if (i) fputs(", ", fp);
-            vg_md_cell(fp, r->labels[i]);
-        }
-        fputc('\n', fp);
-    }
-    fputs("\n## Provenance\n\n", fp);
-    if (prov && prov->tool_version) {
-        fprintf(fp, "- tool: vecgauge %s", prov->tool_version);
-        if (prov->git_describe && *prov->git_describe) fprintf(fp, " (%s)", prov->git_describe);
-        fputc('\n', fp);
-    }
-    if (prov && prov->utc_time) fprintf(fp, "- merged at: %s\n", prov->utc_time);
-    if (prov && prov->command_line) {
-        fputs("- command: `", fp);
-        vg_md_cell(fp, prov->command_line);
-        fputs("`\n", fp);
-    }
     fputc('\n', fp);
+    vg_md_saved_runs(fp, "Merged runs", runs, n, 1);
+    vg_md_short_provenance(fp, prov, "merged at");
     if (ferror(fp)) return vg_error_set(err, VG_EIO, path, 0, "write failed");
     return VG_OK;
 }

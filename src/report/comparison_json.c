@@ -1,42 +1,18 @@
 /* comparison_json.c - compare.json: what a comparison directory was made from.
  * Part of vecgauge; MIT licence, see LICENSE.
  */
-#include <jansson.h>
 #include <stdlib.h>
 #include <string.h>
 
+#include "json_impl.h"
 #include "vecgauge/compare.h"
-
-/* A JSON string of s, '?' for bytes that are not UTF-8. */
-static json_t *jstr(const char *s) {
-    json_t *j = json_string(s ? s : "");
-    if (j) return j;
-    size_t n = strlen(s);
-    char *c = malloc(n + 1);
-    if (!c) return NULL;
-    for (size_t i = 0; i <= n; i++) c[i] = (unsigned char)s[i] < 0x80 ? s[i] : '?';
-    j = json_string(c);
-    free(c);
-    return j;
-}
 
 vg_status vg_report_compare_json(const vg_comparisons *c, const vg_saved_run *const *runs,
                                  size_t n, const vg_provenance *prov, FILE *fp, const char *path,
                                  vg_error *err) {
     json_t *root = json_object();
     if (!root) return vg_error_set(err, VG_ENOMEM, path, 0, "out of memory");
-    json_object_set_new(root, "format", json_string("vecgauge-compare 1"));
-    json_t *tool = json_object();
-    json_object_set_new(tool, "name", json_string("vecgauge"));
-    json_object_set_new(tool, "version", jstr(prov ? prov->tool_version : NULL));
-    json_object_set_new(tool, "git_describe", jstr(prov ? prov->git_describe : NULL));
-    json_object_set_new(root, "tool", tool);
-    json_object_set_new(root, "utc_time", jstr(prov ? prov->utc_time : NULL));
-    json_object_set_new(root, "command_line", jstr(prov ? prov->command_line : NULL));
-    json_object_set_new(root, "cwd", jstr(prov ? prov->cwd : NULL));
-    json_t *argv = json_array();
-    for (size_t i = 0; prov && i < prov->argc; i++) json_array_append_new(argv, jstr(prov->argv[i]));
-    json_object_set_new(root, "argv", argv);
+    vg_json_provenance(root, "vecgauge-compare 1", prov);
     const vg_compare_options *o = &c->options;
     json_t *opts = json_object();
     json_object_set_new(opts, "seed", json_integer((json_int_t)o->seed));
@@ -53,10 +29,10 @@ vg_status vg_report_compare_json(const vg_comparisons *c, const vg_saved_run *co
     json_t *jr = json_array();
     for (size_t q = 0; q < n; q++) {
         json_t *r = json_object(), *sets = json_array();
-        json_object_set_new(r, "dir", jstr(runs[q]->dir));
-        json_object_set_new(r, "utc_time", jstr(runs[q]->utc_time));
-        json_object_set_new(r, "command_line", jstr(runs[q]->command_line));
-        for (size_t i = 0; i < runs[q]->n_sets; i++) json_array_append_new(sets, jstr(runs[q]->labels[i]));
+        json_object_set_new(r, "dir", vg_json_text(runs[q]->dir));
+        json_object_set_new(r, "utc_time", vg_json_text(runs[q]->utc_time));
+        json_object_set_new(r, "command_line", vg_json_text(runs[q]->command_line));
+        for (size_t i = 0; i < runs[q]->n_sets; i++) json_array_append_new(sets, vg_json_text(runs[q]->labels[i]));
         json_object_set_new(r, "vector_sets", sets);
         json_array_append_new(jr, r);
     }
@@ -64,7 +40,7 @@ vg_status vg_report_compare_json(const vg_comparisons *c, const vg_saved_run *co
     json_t *js = json_array();
     for (size_t k = 0; k < c->n_suites; k++) {
         json_t *s = json_object();
-        json_object_set_new(s, "id", jstr(c->suite_ids[k]));
+        json_object_set_new(s, "id", vg_json_text(c->suite_ids[k]));
         json_object_set_new(s, "task", json_string(vg_task_name(c->tasks[k])));
         json_object_set_new(s, "items", json_integer((json_int_t)c->n_items[k]));
         json_array_append_new(js, s);

@@ -274,6 +274,42 @@ vg_status vg_report_comparison_text(const vg_comparisons *c, FILE *fp, vg_error 
     return VG_OK;
 }
 
+
+void vg_md_saved_runs(FILE *fp, const char *title, const vg_saved_run *const *runs, size_t n,
+                      int settings) {
+    fprintf(fp, "## %s\n\n", title);
+    for (size_t q = 0; q < n; q++) {
+        const vg_saved_run *r = runs[q];
+        fputs("- `", fp);
+        vg_md_cell(fp, r->dir);
+        fprintf(fp, "` (%s", *r->utc_time ? r->utc_time : "time unknown");
+        if (settings) fprintf(fp, ", seed %llu, %zu resamples", (unsigned long long)r->seed, r->bootstrap);
+        fputs("): ", fp);
+        for (size_t i = 0; i < r->n_sets; i++) {
+            if (i) fputs(", ", fp);
+            vg_md_cell(fp, r->labels[i]);
+        }
+        fputc('\n', fp);
+    }
+    fputc('\n', fp);
+}
+
+void vg_md_short_provenance(FILE *fp, const vg_provenance *prov, const char *when) {
+    fputs("## Provenance\n\n", fp);
+    if (prov && prov->tool_version) {
+        fprintf(fp, "- tool: vecgauge %s", prov->tool_version);
+        if (prov->git_describe && *prov->git_describe) fprintf(fp, " (%s)", prov->git_describe);
+        fputc('\n', fp);
+    }
+    if (prov && prov->utc_time) fprintf(fp, "- %s: %s\n", when, prov->utc_time);
+    if (prov && prov->command_line) {
+        fputs("- command: `", fp);
+        vg_md_cell(fp, prov->command_line);
+        fputs("`\n", fp);
+    }
+    fputc('\n', fp);
+}
+
 vg_status vg_report_compare_summary_md(const vg_comparisons *c, const vg_saved_run *const *runs,
                                        size_t n, const vg_provenance *prov, FILE *fp,
                                        const char *path, vg_error *err) {
@@ -329,31 +365,8 @@ vg_status vg_report_compare_summary_md(const vg_comparisons *c, const vg_saved_r
     fputc('\n', fp);
     vg_status st = vg_report_comparison_md(c, fp, path, err);
     if (st != VG_OK) return st;
-    fputs("## Runs compared\n\n", fp);
-    for (size_t q = 0; q < n; q++) {
-        const vg_saved_run *r = runs[q];
-        fputs("- `", fp);
-        vg_md_cell(fp, r->dir);
-        fprintf(fp, "` (%s): ", *r->utc_time ? r->utc_time : "time unknown");
-        for (size_t i = 0; i < r->n_sets; i++) {
-            if (i) fputs(", ", fp);
-            vg_md_cell(fp, r->labels[i]);
-        }
-        fputc('\n', fp);
-    }
-    fputs("\n## Provenance\n\n", fp);
-    if (prov && prov->tool_version) {
-        fprintf(fp, "- tool: vecgauge %s", prov->tool_version);
-        if (prov->git_describe && *prov->git_describe) fprintf(fp, " (%s)", prov->git_describe);
-        fputc('\n', fp);
-    }
-    if (prov && prov->utc_time) fprintf(fp, "- compared at: %s\n", prov->utc_time);
-    if (prov && prov->command_line) {
-        fputs("- command: `", fp);
-        vg_md_cell(fp, prov->command_line);
-        fputs("`\n", fp);
-    }
-    fputc('\n', fp);
+    vg_md_saved_runs(fp, "Runs compared", runs, n, 0);
+    vg_md_short_provenance(fp, prov, "compared at");
     if (ferror(fp)) return vg_error_set(err, VG_EIO, path, 0, "write failed");
     return VG_OK;
 }

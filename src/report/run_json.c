@@ -9,25 +9,8 @@
 #include <stdlib.h>
 #include <string.h>
 
+#include "json_impl.h"
 #include "vecgauge/report.h"
-
-/* jansson returns NULL on allocation failure; json_object_set_new then
- * fails too, which the final check catches. */
-static json_t *str(const char *s) { return json_string(s ? s : ""); }
-
-/* A string that may hold bytes that are not UTF-8 (words, paths): jansson
- * refuses those, so fall back to a lossy copy with '?' for bad bytes. */
-static json_t *bytes_str(const char *s) {
-    json_t *j = json_string(s ? s : "");
-    if (j) return j;
-    size_t n = strlen(s);
-    char *c = malloc(n + 1);
-    if (!c) return NULL;
-    for (size_t i = 0; i <= n; i++) c[i] = (unsigned char)s[i] < 0x80 ? s[i] : '?';
-    j = json_string(c);
-    free(c);
-    return j;
-}
 
 static json_t *setting_value(const vg_setting *st) {
     char *end;
@@ -45,19 +28,19 @@ static json_t *setting_value(const vg_setting *st) {
     case VG_SETTING_BOOL: return json_boolean(strcmp(st->value, "0") != 0);
     case VG_SETTING_STRING: break;
     }
-    return bytes_str(st->value);
+    return vg_json_text(st->value);
 }
 
 static json_t *vector_set_json(const vg_results *r, size_t i) {
     const vg_vectors_info *in = &r->infos[i];
     json_t *o = json_object();
-    json_object_set_new(o, "label", bytes_str(r->labels[i]));
-    json_object_set_new(o, "path", bytes_str(r->paths[i]));
+    json_object_set_new(o, "label", vg_json_text(r->labels[i]));
+    json_object_set_new(o, "path", vg_json_text(r->paths[i]));
     json_object_set_new(o, "bytes", json_integer((json_int_t)in->bytes));
-    json_object_set_new(o, "sha256", in->hashed ? str(in->sha256) : json_null());
-    json_object_set_new(o, "layout", str(vg_layout_name(in->layout)));
+    json_object_set_new(o, "sha256", in->hashed ? vg_json_text(in->sha256) : json_null());
+    json_object_set_new(o, "layout", vg_json_text(vg_layout_name(in->layout)));
     json_object_set_new(o, "gzip", json_boolean(in->gzip));
-    json_object_set_new(o, "detected_because", bytes_str(in->detected_because));
+    json_object_set_new(o, "detected_because", vg_json_text(in->detected_because));
     json_object_set_new(o, "header_rows", json_integer((json_int_t)in->header_rows));
     json_object_set_new(o, "rows_read", json_integer((json_int_t)in->rows_read));
     json_object_set_new(o, "rows_kept", json_integer((json_int_t)in->rows));
@@ -68,19 +51,19 @@ static json_t *vector_set_json(const vg_results *r, size_t i) {
     json_object_set_new(o, "words_with_spaces", json_integer((json_int_t)in->words_with_spaces));
     json_object_set_new(o, "invalid_utf8", json_integer((json_int_t)in->invalid_utf8));
     if (in->vocab_path[0]) {
-        json_object_set_new(o, "vocab_path", bytes_str(in->vocab_path));
-        json_object_set_new(o, "vocab_sha256", str(in->vocab_sha256));
+        json_object_set_new(o, "vocab_path", vg_json_text(in->vocab_path));
+        json_object_set_new(o, "vocab_sha256", vg_json_text(in->vocab_sha256));
     }
     return o;
 }
 
 static json_t *suite_json(const vg_suite *s) {
     json_t *o = json_object();
-    json_object_set_new(o, "id", bytes_str(s->id));
-    json_object_set_new(o, "title", bytes_str(s->title));
-    json_object_set_new(o, "task", str(vg_task_name(s->task)));
+    json_object_set_new(o, "id", vg_json_text(s->id));
+    json_object_set_new(o, "title", vg_json_text(s->title));
+    json_object_set_new(o, "task", vg_json_text(vg_task_name(s->task)));
     json_object_set_new(o, "items", json_integer((json_int_t)s->n_items));
-    json_object_set_new(o, "layout_detected", bytes_str(s->layout_detected));
+    json_object_set_new(o, "layout_detected", vg_json_text(s->layout_detected));
     json_object_set_new(o, "sections", json_integer((json_int_t)s->n_sections));
     json_object_set_new(o, "duplicates", json_integer((json_int_t)s->stats.duplicates));
     json_object_set_new(o, "reversed_duplicates",
@@ -89,9 +72,9 @@ static json_t *suite_json(const vg_suite *s) {
     json_t *files = json_array();
     for (size_t f = 0; f < s->n_files; f++) {
         json_t *fo = json_object();
-        json_object_set_new(fo, "path", bytes_str(s->files[f].path));
+        json_object_set_new(fo, "path", vg_json_text(s->files[f].path));
         json_object_set_new(fo, "bytes", json_integer((json_int_t)s->files[f].bytes));
-        json_object_set_new(fo, "sha256", str(s->files[f].sha256));
+        json_object_set_new(fo, "sha256", vg_json_text(s->files[f].sha256));
         json_array_append_new(files, fo);
     }
     json_object_set_new(o, "files", files);
@@ -102,19 +85,7 @@ vg_status vg_report_run_json(const vg_results *r, const vg_provenance *prov, FIL
                              const char *path, vg_error *err) {
     json_t *root = json_object();
     if (!root) return vg_error_set(err, VG_ENOMEM, path, 0, "out of memory");
-    json_object_set_new(root, "format", str("vecgauge-run 1"));
-    json_t *tool = json_object();
-    json_object_set_new(tool, "name", str("vecgauge"));
-    json_object_set_new(tool, "version", str(prov ? prov->tool_version : NULL));
-    json_object_set_new(tool, "git_describe", str(prov ? prov->git_describe : NULL));
-    json_object_set_new(root, "tool", tool);
-    json_object_set_new(root, "utc_time", str(prov ? prov->utc_time : NULL));
-    json_object_set_new(root, "command_line", bytes_str(prov ? prov->command_line : NULL));
-    json_object_set_new(root, "cwd", bytes_str(prov ? prov->cwd : NULL));
-    json_t *argv = json_array();
-    for (size_t i = 0; prov && i < prov->argc; i++)
-        json_array_append_new(argv, bytes_str(prov->argv[i]));
-    json_object_set_new(root, "argv", argv);
+    vg_json_provenance(root, "vecgauge-run 1", prov);
     json_t *opts = json_object();
     for (size_t i = 0; prov && i < prov->n_settings; i++)
         json_object_set_new(opts, prov->settings[i].name, setting_value(&prov->settings[i]));
