@@ -144,7 +144,7 @@ char **vg_cli_plot_names(const vg_comparisons *cmp);
 void vg_cli_free_names(char **names);
 vg_status vg_cli_write_plots(vg_rundir *rd, const vg_comparisons *cmp, vg_error *err);
 
-/* A directory of output files written whole or not at all (cmd_compare.c):
+/* A directory of output files written whole or not at all (run_output.c):
  * files in order, the plots (names as for the signal handler, drawn by
  * plots(rd, ctx)) just before the last file. Prints the error and
  * returns VG_EXIT_FAIL on failure. */

@@ -97,53 +97,6 @@ vg_status vg_cli_write_plots(vg_rundir *rd, const vg_comparisons *cmp, vg_error 
     return VG_OK;
 }
 
-int vg_cli_write_dir(const char *dir, const vg_cli_file *files, size_t n, char **plot_names,
-                     vg_status (*plots)(vg_rundir *rd, void *ctx, vg_error *err), void *plot_ctx) {
-    vg_error err;
-    vg_error_clear(&err);
-    size_t n_plots = 0;
-    while (plot_names && plot_names[n_plots]) n_plots++;
-    const char **names = calloc(n + n_plots + 1, sizeof *names);
-    if (!names) {
-        vg_cli_fail("out of memory");
-        return VG_EXIT_FAIL;
-    }
-    for (size_t i = 0; i < n; i++) names[i] = files[i].name;
-    for (size_t i = 0; i < n_plots; i++) names[n + i] = plot_names[i];
-    vg_rundir *rd = NULL;
-    vg_status st = vg_rundir_begin(dir, &rd, &err);
-    vg_cli_set_cleanup(rd ? vg_rundir_temp_path(rd) : NULL, names);
-    /* The same test hook as for run directories (run_output.c). */
-    const char *slow = getenv("VECGAUGE_TEST_SLOW_WRITE");
-    int pause = slow && *slow == '1';
-    for (size_t i = 0; st == VG_OK && i < n; i++) {
-        if (plots && i + 1 == n) {
-            if (pause) usleep(200000);
-            if ((st = plots(rd, plot_ctx, &err)) != VG_OK) break;
-        }
-        if (pause) usleep(200000);
-        FILE *fp = NULL;
-        if ((st = vg_rundir_open(rd, files[i].name, &fp, &err)) != VG_OK) break;
-        const char *path = vg_rundir_file(rd, files[i].name);
-        st = files[i].fn(files[i].ctx, fp, path, &err);
-        vg_status c = vg_report_close(fp, path, &err);
-        if (st == VG_OK) st = c;
-    }
-    if (st == VG_OK && vg_cli_interrupted())
-        st = vg_error_set(&err, VG_EINTERRUPTED, dir, 0, "interrupted; nothing was written");
-    if (st == VG_OK)
-        st = vg_rundir_commit(rd, &err);
-    else
-        vg_rundir_abort(rd);
-    vg_cli_set_cleanup(NULL, NULL);
-    free(names);
-    if (st != VG_OK) {
-        vg_cli_error(&err);
-        return VG_EXIT_FAIL;
-    }
-    return VG_EXIT_OK;
-}
-
 void vg_cli_free_runs(vg_saved_run **runs, size_t n) {
     for (size_t i = 0; runs && i < n; i++) vg_saved_run_free(runs[i]);
     free(runs);

@@ -87,48 +87,81 @@ static const struct {
 
 #define N_RUN_FILES (sizeof run_files / sizeof run_files[0])
 
+/* One run file as a vg_cli_file: its writer and what it writes from. */
+typedef struct run_file_ctx {
+    writer_fn fn;
+    const vg_results *res;
+    const vg_provenance *prov;
+} run_file_ctx;
+
+static vg_status call_writer(void *ctx, FILE *fp, const char *path, vg_error *err) {
+    const run_file_ctx *c = ctx;
+    return c->fn(c->res, c->prov, fp, path, err);
+}
+
+static vg_status plots_cb(vg_rundir *rd, void *ctx, vg_error *err) {
+    (void)ctx;
+    return vg_cli_write_plots(rd, run_cmp, err);
+}
+
 int vg_cli_write_run(const char *dir, const vg_results *res, const vg_provenance *prov) {
     return vg_cli_write_run_compared(dir, res, NULL, prov);
 }
 
 int vg_cli_write_run_compared(const char *dir, const vg_results *res, const vg_comparisons *cmp,
                               const vg_provenance *prov) {
-    vg_error err;
-    vg_error_clear(&err);
-    /* The names the signal handler removes: the files, the plots, plots/. */
     char **plots = cmp ? vg_cli_plot_names(cmp) : NULL;
-    size_t n_plots = 0;
-    while (plots && plots[n_plots]) n_plots++;
-    const char **names = calloc(N_RUN_FILES + n_plots + 1, sizeof *names);
-    if (!names || (cmp && !plots)) {
-        free(names);
-        vg_cli_free_names(plots);
+    if (cmp && !plots) {
         vg_cli_fail("out of memory");
         return VG_EXIT_FAIL;
     }
-    size_t nn = 0;
-    for (size_t i = 0; i < N_RUN_FILES; i++) names[nn++] = run_files[i].name;
-    for (size_t i = 0; i < n_plots; i++) names[nn++] = plots[i];
+    run_file_ctx ctx[N_RUN_FILES];
+    vg_cli_file files[N_RUN_FILES];
+    size_t n = 0;
+    for (size_t i = 0; i < N_RUN_FILES; i++) {
+        if (run_files[i].compared && !cmp) continue;
+        ctx[n] = (run_file_ctx){run_files[i].fn, res, prov};
+        files[n] = (vg_cli_file){run_files[i].name, call_writer, &ctx[n]};
+        n++;
+    }
     run_cmp = cmp;
+    int rc = vg_cli_write_dir(dir, files, n, plots, cmp ? plots_cb : NULL, NULL);
+    run_cmp = NULL;
+    vg_cli_free_names(plots);
+    return rc;
+}
+
+/* ---- any directory of output files -------------------------------------- */
+
+int vg_cli_write_dir(const char *dir, const vg_cli_file *files, size_t n, char **plot_names,
+                     vg_status (*plots)(vg_rundir *rd, void *ctx, vg_error *err), void *plot_ctx) {
+    vg_error err;
+    vg_error_clear(&err);
+    size_t n_plots = 0;
+    while (plot_names && plot_names[n_plots]) n_plots++;
+    const char **names = calloc(n + n_plots + 1, sizeof *names);
+    if (!names) {
+        vg_cli_fail("out of memory");
+        return VG_EXIT_FAIL;
+    }
+    for (size_t i = 0; i < n; i++) names[i] = files[i].name;
+    for (size_t i = 0; i < n_plots; i++) names[n + i] = plot_names[i];
     vg_rundir *rd = NULL;
     vg_status st = vg_rundir_begin(dir, &rd, &err);
     vg_cli_set_cleanup(rd ? vg_rundir_temp_path(rd) : NULL, names);
-    /* Test hook: VECGAUGE_TEST_SLOW_WRITE=1 pauses 200 ms before each file so
-     * that tests can interrupt a run while its directory is half written. */
+    /* The same test hook as for run directories (run_output.c). */
     const char *slow = getenv("VECGAUGE_TEST_SLOW_WRITE");
-    for (size_t i = 0; st == VG_OK && i < N_RUN_FILES; i++) {
-        if (run_files[i].compared && !cmp) continue;
-        if (cmp && strcmp(run_files[i].name, "run.json") == 0) {
-            if (slow && *slow == '1') usleep(200000);
-            st = vg_cli_write_plots(rd, cmp, &err);
-            if (st != VG_OK) break;
+    int pause = slow && *slow == '1';
+    for (size_t i = 0; st == VG_OK && i < n; i++) {
+        if (plots && i + 1 == n) {
+            if (pause) usleep(200000);
+            if ((st = plots(rd, plot_ctx, &err)) != VG_OK) break;
         }
+        if (pause) usleep(200000);
         FILE *fp = NULL;
-        if (slow && *slow == '1') usleep(200000);
-        st = vg_rundir_open(rd, run_files[i].name, &fp, &err);
-        if (st != VG_OK) break;
-        const char *path = vg_rundir_file(rd, run_files[i].name);
-        st = run_files[i].fn(res, prov, fp, path, &err);
+        if ((st = vg_rundir_open(rd, files[i].name, &fp, &err)) != VG_OK) break;
+        const char *path = vg_rundir_file(rd, files[i].name);
+        st = files[i].fn(files[i].ctx, fp, path, &err);
         vg_status c = vg_report_close(fp, path, &err);
         if (st == VG_OK) st = c;
     }
@@ -139,12 +172,11 @@ int vg_cli_write_run_compared(const char *dir, const vg_results *res, const vg_c
     else
         vg_rundir_abort(rd);
     vg_cli_set_cleanup(NULL, NULL);
-    run_cmp = NULL;
     free(names);
-    vg_cli_free_names(plots);
     if (st != VG_OK) {
         vg_cli_error(&err);
         return VG_EXIT_FAIL;
     }
     return VG_EXIT_OK;
 }
+
