@@ -21,5 +21,5 @@ help_options() {
 
 # help_option_row CMD OPTION: the option row of --help naming OPTION.
 help_option_row() {
-    "$VG_BIN" "$1" --help | grep -E "^ {1,8}-.*(^|[ ,])$2( |,|\$)"
+    "$VG_BIN" "$1" --help | grep -E '^ {1,8}-' | grep -E -- "(^|[ ,])$2( |,|\$)"
 }
