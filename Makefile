@@ -230,9 +230,13 @@ INST_BIN = $(DESTDIR)$(PREFIX)/bin
 INST_LIB = $(DESTDIR)$(PREFIX)/lib
 INST_INC = $(DESTDIR)$(PREFIX)/include/vecgauge
 INST_PC  = $(DESTDIR)$(PREFIX)/lib/pkgconfig
+INST_MAN = $(DESTDIR)$(PREFIX)/share/man/man1
+INST_SHARE = $(DESTDIR)$(PREFIX)/share/vecgauge
+INST_BASHCOMP = $(DESTDIR)$(PREFIX)/share/bash-completion/completions
 INSTALLED = $(INST_BIN)/vecgauge $(INST_LIB)/libvecgauge.a $(INST_LIB)/libvecgauge.so.$(VERSION) \
             $(INST_LIB)/$(SONAME) $(INST_LIB)/libvecgauge.so $(INST_PC)/vecgauge.pc \
-            $(addprefix $(INST_INC)/,$(notdir $(HEADERS)))
+            $(addprefix $(INST_INC)/,$(notdir $(HEADERS))) \
+            $(INST_MAN)/vecgauge.1 $(INST_SHARE)/suites.csv $(INST_BASHCOMP)/vecgauge
 
 install: all
 	install -d $(INST_BIN) $(INST_LIB) $(INST_INC) $(INST_PC)
@@ -243,10 +247,14 @@ install: all
 	ln -sf $(SONAME) $(INST_LIB)/libvecgauge.so
 	install -m 644 $(HEADERS) $(INST_INC)/
 	install -m 644 $(PC) $(INST_PC)/vecgauge.pc
+	install -d $(INST_MAN) $(INST_SHARE) $(INST_BASHCOMP)
+	install -m 644 man/vecgauge.1 $(INST_MAN)/vecgauge.1
+	install -m 644 $(MANIFEST_CSV) $(INST_SHARE)/suites.csv
+	install -m 644 completion/vecgauge.bash $(INST_BASHCOMP)/vecgauge
 
 uninstall:
 	rm -f $(INSTALLED)
-	-rmdir $(INST_INC) 2>/dev/null
+	-rmdir $(INST_INC) $(INST_SHARE) 2>/dev/null
 
 clean:
 	rm -rf build

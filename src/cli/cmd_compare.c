@@ -42,9 +42,10 @@ static const char compare_help[] =
     "\n"
     "Writes comparison.csv (one row per suite, metric and pair of sets), ranking.csv,\n"
     "summary.md, plots/SUITE.svg and .png, and compare.json, and prints the table.\n"
-    "Similarity: paired bootstrap of the difference in Spearman's rho (BCa interval,\n"
-    "Hall-Wilson p), with Steiger's Z1* beside it; analogy: McNemar's exact test\n"
-    "and a paired bootstrap interval of the accuracy difference.\n";
+    "Similarity: Steiger's Z1* on the common items is the test; a paired bootstrap\n"
+    "of the difference in Spearman's rho gives the interval (BCa) and a second p\n"
+    "(Hall-Wilson). Analogy: McNemar's exact test, and a paired bootstrap interval\n"
+    "of the accuracy difference. With --no-common the paired bootstrap is the test.\n";
 
 /* ---- shared helpers ------------------------------------------------------- */
 

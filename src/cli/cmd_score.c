@@ -57,7 +57,8 @@ static const char score_help[] =
     "Writes scores.csv, intervals.csv, agreement.csv, items.csv, missing.csv,\n"
     "summary.md, table.tex and run.json into the run directory and prints the\n"
     "headline table on standard output; with several sets also comparison.csv,\n"
-    "ranking.csv and plots/ (see 'vecgauge compare --help'). Intervals are BCa bootstrap intervals\n"
+    "ranking.csv and plots/ (see 'vecgauge compare --help'). Intervals are BCa\n"
+    "bootstrap intervals for similarity and Wilson's for analogy accuracy\n"
     "(percentile and Fisher-z ones in intervals.csv); the same seed gives the\n"
     "same numbers for any --threads.\n";
 
