@@ -57,6 +57,11 @@ static int cmd_help(int argc, char **argv) {
         return VG_EXIT_OK;
     }
     const command *c = find(argv[1]);
+    /* `vecgauge help --help` (or -h) is help about help: the main help. */
+    if (!c && (strcmp(argv[1], "--help") == 0 || strcmp(argv[1], "-h") == 0)) {
+        main_help(stdout);
+        return VG_EXIT_OK;
+    }
     if (!c || c->run == cmd_help) {
         if (!c) return vg_cli_usage_error("help", "unknown command '%s'", argv[1]);
         main_help(stdout);

@@ -23,6 +23,21 @@ struct vg_rundir {
     size_t file_cap;
 };
 
+/* mkdir each folder of path[0..len) that does not exist; errors are left
+ * to the mkdtemp that follows, which reports them. */
+static void make_parents(char *path, size_t len) {
+    for (size_t i = 1; i <= len; i++) {
+        if (i < len && path[i] != '/') continue;
+        char keep = path[i];
+        path[i] = '\0';
+        if (mkdir(path, 0777) != 0 && errno != EEXIST) {
+            path[i] = keep;
+            return;
+        }
+        path[i] = keep;
+    }
+}
+
 vg_status vg_rundir_begin(const char *final_path, vg_rundir **out, vg_error *err) {
     *out = NULL;
     struct stat sb;
@@ -49,6 +64,9 @@ vg_status vg_rundir_begin(const char *final_path, vg_rundir **out, vg_error *err
     }
     snprintf(rd->temp_path, tlen, "%.*s.%.*s.tmp-XXXXXX", (int)dirlen, final_path, (int)baselen,
              base);
+    /* Missing parent folders are made (as mkdir -p would): --out
+     * results/sweep-3/lr-0.1 should not need a separate mkdir. */
+    if (dirlen > 1) make_parents(rd->temp_path, dirlen - 1);
     if (!mkdtemp(rd->temp_path)) {
         vg_status st = vg_error_set(err, VG_EIO, rd->temp_path, 0,
                                     "cannot create a temporary run directory");

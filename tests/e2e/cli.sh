@@ -10,6 +10,8 @@ expect_status "help exits 0" 0 "$VG_BIN" help
 expect_in "help lists score" "score" "$TMP/out"
 expect_status "score --help exits 0" 0 "$VG_BIN" score --help
 expect_in "score --help shows usage" "Usage: vecgauge score" "$TMP/out"
+expect_status "help --help exits 0 (help about help is the main help)" 0 "$VG_BIN" help --help
+expect_in "help --help lists the commands" "compare" "$TMP/out"
 expect_status "help score equals score --help" 0 "$VG_BIN" help score
 expect_status "no command: usage error 2" 2 "$VG_BIN"
 expect_status "unknown command: usage error 2" 2 "$VG_BIN" frobnicate

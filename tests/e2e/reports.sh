@@ -101,6 +101,11 @@ else
     skip "no TeX installation with booktabs; table.tex not compiled"
 fi
 
+# --out in folders that do not exist yet: they are made (as mkdir -p).
+"$VG_BIN" score --bootstrap 0 --pairs "$F/pairs/basic.tsv" --out "$TMP/new/deeper/run" \
+    "$F/vectors/header.txt" > /dev/null 2>&1
+check "--out makes missing parent folders" test -f "$TMP/new/deeper/run/run.json"
+
 # SIGINT while the run directory is being written: nothing is left, not
 # the run directory and not its temporary. SIGTERM likewise.
 for sig in INT TERM; do
