@@ -59,6 +59,22 @@ static inline void vg_fuzz_format_error(const vg_error *err) {
     vg_error_format(err, buf, sizeof buf);
 }
 
+/* Load a vector set (from path, or from data[0..size) when data is not
+ * NULL, named name), touch it or format the error, free it. */
+static inline void vg_fuzz_load(const char *path, const uint8_t *data, size_t size,
+                                const vg_load_options *opt) {
+    vg_vectors *v = NULL;
+    vg_error err;
+    vg_error_clear(&err);
+    vg_status st = data ? vg_vectors_load_buffer(data, size, path, opt, &v, &err)
+                        : vg_vectors_load(path, opt, &v, &err);
+    if (st == VG_OK)
+        vg_fuzz_touch_vectors(v);
+    else
+        vg_fuzz_format_error(&err);
+    vg_vectors_free(v);
+}
+
 /* A scratch directory for the whole process (under $TMPDIR or /tmp),
  * for readers that take a directory; removed with its files at exit. */
 static char vg_fuzz_dir[64];

@@ -14,14 +14,7 @@ int LLVMFuzzerTestOneInput(const uint8_t *data, size_t size) {
         opt.skip_bad_rows = variant;
         opt.allow_short = variant;
         opt.max_words = variant ? 3 : 0;
-        vg_vectors *v = NULL;
-        vg_error err;
-        vg_error_clear(&err);
-        if (vg_vectors_load_buffer(data, size, "fuzz.bin", &opt, &v, &err) == VG_OK)
-            vg_fuzz_touch_vectors(v);
-        else
-            vg_fuzz_format_error(&err);
-        vg_vectors_free(v);
+        vg_fuzz_load("fuzz.bin", data, size, &opt);
     }
     return 0;
 }

@@ -35,14 +35,7 @@ int LLVMFuzzerTestOneInput(const uint8_t *data, size_t size) {
             opt.allow_short = 1;
             opt.max_words = 2;
         }
-        vg_vectors *v = NULL;
-        vg_error err;
-        vg_error_clear(&err);
-        if (vg_vectors_load(path, &opt, &v, &err) == VG_OK)
-            vg_fuzz_touch_vectors(v);
-        else
-            vg_fuzz_format_error(&err);
-        vg_vectors_free(v);
+        vg_fuzz_load(path, NULL, 0, &opt);
     }
     return 0;
 }

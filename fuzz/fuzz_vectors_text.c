@@ -16,14 +16,7 @@ int LLVMFuzzerTestOneInput(const uint8_t *data, size_t size) {
         opt.skip_bad_rows = variant;
         opt.allow_short = variant;
         opt.fold_case = variant;
-        vg_vectors *v = NULL;
-        vg_error err;
-        vg_error_clear(&err);
-        if (vg_vectors_load(path, &opt, &v, &err) == VG_OK)
-            vg_fuzz_touch_vectors(v);
-        else
-            vg_fuzz_format_error(&err);
-        vg_vectors_free(v);
+        vg_fuzz_load(path, NULL, 0, &opt);
     }
     close(fd);
     return 0;

@@ -234,7 +234,6 @@ int vg_cmd_compare(int argc, char **argv) {
         }
     }
     o = so.cmp;
-    int have_seed = so.have_seed, have_boot = so.have_boot, have_ci = so.have_ci;
     size_t n = (size_t)(argc - optind);
     if (n == 0) return vg_cli_usage_error("compare", "no run directory given");
     vg_saved_run **runs = vg_cli_load_runs(argv + optind, n, label_dir);
@@ -255,12 +254,12 @@ int vg_cmd_compare(int argc, char **argv) {
     }
     /* The bootstrap settings of the runs, unless given: then the
      * comparison of saved runs is the one `score` made in-process. */
-    if (!have_seed) o.seed = runs[0]->seed;
-    if (!have_boot) o.replicates = runs[0]->bootstrap;
-    if (!have_ci) o.level = runs[0]->level;
+    if (!so.have_seed) o.seed = runs[0]->seed;
+    if (!so.have_boot) o.replicates = runs[0]->bootstrap;
+    if (!so.have_ci) o.level = runs[0]->level;
     for (size_t q = 1; q < n; q++)
-        if ((!have_seed && runs[q]->seed != o.seed) || (!have_boot && runs[q]->bootstrap != o.replicates) ||
-            (!have_ci && runs[q]->level != o.level)) {
+        if ((!so.have_seed && runs[q]->seed != o.seed) || (!so.have_boot && runs[q]->bootstrap != o.replicates) ||
+            (!so.have_ci && runs[q]->level != o.level)) {
             fprintf(stderr, "%s: warning: %s was run with other bootstrap settings than %s; "
                     "comparing with those of %s (seed %llu, %zu replicates, level %g)\n",
                     vg_cli_progname, runs[q]->dir, runs[0]->dir, runs[0]->dir,

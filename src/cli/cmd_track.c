@@ -455,7 +455,6 @@ int vg_cmd_track(int argc, char **argv) {
         }
     }
     o = so.cmp;
-    int have_seed = so.have_seed, have_boot = so.have_boot, have_ci = so.have_ci;
     if (!history) return vg_cli_usage_error("track", "--history FILE is required");
     if (argc - optind != 1)
         return vg_cli_usage_error("track", "expected one run directory, got %d", argc - optind);
@@ -572,9 +571,9 @@ int vg_cmd_track(int argc, char **argv) {
     /* Compare: (this run, previous) on every suite, (this run, best) on
      * the suites where that run is the best and not the previous one. */
     if (t.n_refs > 0) {
-        if (!have_seed) o.seed = t.cur->seed;
-        if (!have_boot) o.replicates = t.cur->bootstrap;
-        if (!have_ci) o.level = t.cur->level;
+        if (!so.have_seed) o.seed = t.cur->seed;
+        if (!so.have_boot) o.replicates = t.cur->bootstrap;
+        if (!so.have_ci) o.level = t.cur->level;
         if (vg_saved_runs_pair((const vg_saved_run *const *)t.runs, t.n_refs + 1, 0, &items, &err) !=
             VG_OK) {
             vg_cli_error(&err);
