@@ -98,6 +98,9 @@ typedef struct vg_vectors_info {
     int big_endian;            /* npy: the data are big-endian */
     int fortran_order;         /* npy: the data are column-major */
     int source_float64;        /* npy: the data are float64, rounded to float32 */
+    int mapped;                /* npy: the matrix is the file's own bytes, mapped
+                                  read-only (native float32, row-major, aligned);
+                                  the file must not change while it is in use */
 } vg_vectors_info;
 
 typedef struct vg_vectors vg_vectors;

@@ -34,6 +34,8 @@ static void convert_share(void *ctx, unsigned t, unsigned nt) {
             return;
         }
     }
+    /* Each thread maps in its own share of a borrowed matrix's pages. */
+    if (b->in_matrix && hi > lo) vg_vecbuild_populate(v, b->rows[lo].file_row, hi - lo);
     for (size_t i = lo; i < hi; i++) {
         vg_batch_row *r = &b->rows[i];
         float *dst = v->data + r->file_row * v->ld;
@@ -72,7 +74,7 @@ vg_status vg_batch_run(vg_batch *b, vg_error *err) {
     }
     /* The rows as read are the stored bytes: hash them before any row
      * moves. */
-    if (b->hash_src && b->fill)
+    if (b->hash_src && (b->fill || b->in_matrix))
         vg_src_hash_submit(b->hash_src, v->data + b->rows[0].file_row * v->ld,
                            b->n * v->dims * sizeof(float));
     int waited = 0;
@@ -103,6 +105,20 @@ vg_status vg_batch_run(vg_batch *b, vg_error *err) {
         st = vg_vecbuild_add(v, &r->key, r->norm, &dst, b->path, 0, err);
         if (st == VG_OK && dst) {
             const float *src = v->data + r->file_row * v->ld;
+            if (dst != src && v->borrow_map) {
+                /* A dropped row before this one: rows must move, which
+                 * the file's read-only bytes cannot; take a copy. */
+                size_t at = (size_t)(dst - v->data);
+                /* The hasher reads the borrowed bytes: let it finish. */
+                if (b->hash_src) vg_src_hash_wait_upto(b->hash_src, vg_src_hash_submitted(b->hash_src));
+                waited = 1;
+                if (vg_vecbuild_own(v) != 0) {
+                    st = vg_error_set(err, VG_ENOMEM, b->path, 0, "out of memory for the matrix");
+                    break;
+                }
+                dst = v->data + at;
+                src = v->data + r->file_row * v->ld;
+            }
             if (dst != src) {
                 if (b->hash_src && !waited) {
                     vg_src_hash_wait_upto(b->hash_src, vg_src_hash_submitted(b->hash_src));

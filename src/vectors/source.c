@@ -176,6 +176,8 @@ const char *vg_src_mapping(const vg_src *s, size_t *n) {
     return s->map;
 }
 
+int vg_src_file_fd(const vg_src *s) { return s->kind == SRC_MAP ? s->map_fd : -1; }
+
 vg_status vg_src_peek(vg_src *s, const char **p, size_t *n, int *whole, vg_error *err) {
     if (s->kind == SRC_MAP) {
         *n = VG_MIN(s->map_size, s->chunk);

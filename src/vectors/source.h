@@ -138,6 +138,9 @@ VG_INTERNAL void vg_seq_end(vg_seq *q);
  * padded array, or NULL. Readers that can index it directly (npy in
  * Fortran order) use it and report progress with vg_src_advance. */
 VG_INTERNAL const char *vg_src_mapping(const vg_src *s, size_t *n);
+/* The descriptor of a mapped regular file (not gzip), or -1: what
+ * vg_vecbuild_borrow maps again to use the file's bytes as the matrix. */
+VG_INTERNAL int vg_src_file_fd(const vg_src *s);
 /* Map the page tables of [offset, offset + n) of the mapping in one go
  * (a reader about to walk it): one call instead of a page fault every few
  * pages, and the cache prefetcher can then run ahead. A hint only. */

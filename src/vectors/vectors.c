@@ -7,6 +7,8 @@
 #include <pthread.h>
 #include <stdlib.h>
 #include <string.h>
+#include <sys/mman.h>
+#include <unistd.h>
 #ifdef __SSE2__
 #include <emmintrin.h>
 #endif
@@ -105,6 +107,8 @@ int vg_all_finite(const float *x, size_t n) {
  * memory when written. */
 static int reserve_matrix(vg_vectors *v, size_t need) {
     if (need <= v->cap_rows) return 0;
+    if (v->borrow_map && vg_vecbuild_own(v) != 0) return -1;
+    if (need <= v->cap_rows) return 0;
     size_t ncap = v->cap_rows ? v->cap_rows : 1024;
     while (ncap < need)
         if (vg_mul_overflow(ncap, 2, &ncap)) return -1;
@@ -118,6 +122,58 @@ static int reserve_matrix(vg_vectors *v, size_t need) {
 }
 
 int vg_vecbuild_reserve(vg_vectors *v, size_t rows) { return reserve_matrix(v, rows); }
+
+int vg_vecbuild_borrow(vg_vectors *v, int fd, uint64_t offset, size_t rows) {
+    size_t bytes, len;
+    if (v->borrow_map || v->rows || fd < 0 || rows == 0 || offset % 64 != 0 ||
+        vg_mul_overflow(rows, v->ld * sizeof(float), &bytes) ||
+        vg_add_overflow(bytes, (size_t)offset, &len))
+        return -1;
+    /* The pages are the page cache's own, so nothing is zeroed or copied
+     * (first touches of fresh anonymous memory are what a copy costs
+     * most, in a VM above all). vg_vecbuild_populate maps them in ahead
+     * of the readers, a batch at a time. */
+    void *m = mmap(NULL, len, PROT_READ, MAP_PRIVATE, fd, 0);
+    if (m == MAP_FAILED) return -1;
+    v->borrow_map = m;
+    v->borrow_len = len;
+    v->borrow_rows = rows;
+    v->data = (float *)((char *)m + offset);
+    v->cap_rows = rows;
+    return 0;
+}
+
+void vg_vecbuild_populate(vg_vectors *v, size_t row, size_t n) {
+#ifdef MADV_POPULATE_READ
+    if (!v->borrow_map || row >= v->borrow_rows) return;
+    n = VG_MIN(n, v->borrow_rows - row);
+    size_t pg = (size_t)sysconf(_SC_PAGESIZE);
+    uintptr_t base = (uintptr_t)v->borrow_map, end = base + v->borrow_len;
+    uintptr_t b = (uintptr_t)(v->data + row * v->ld) & ~(uintptr_t)(pg - 1);
+    uintptr_t e = VG_MIN((uintptr_t)(v->data + (row + n) * v->ld), end);
+    /* One call maps the batch's pages (and reads any not yet cached),
+     * instead of a fault per few pages in the checking threads. */
+    if (e > b) madvise((void *)b, (size_t)(e - b), MADV_POPULATE_READ);
+#else
+    (void)v;
+    (void)row;
+    (void)n;
+#endif
+}
+
+int vg_vecbuild_own(vg_vectors *v) {
+    if (!v->borrow_map) return 0;
+    size_t bytes = v->borrow_rows * v->ld * sizeof(float);
+    if (vg_bigbuf_reserve(&v->mat, bytes) != 0) return -1;
+    memcpy(v->mat.p, v->data, bytes);
+    munmap(v->borrow_map, v->borrow_len);
+    v->borrow_map = NULL;
+    v->borrow_len = 0;
+    v->borrow_rows = 0;
+    v->data = v->mat.p;
+    v->cap_rows = v->mat.reserved / (v->ld * sizeof(float));
+    return 0;
+}
 
 size_t vg_vecbuild_test_reserve;
 
@@ -354,8 +410,14 @@ vg_status vg_vecbuild_finish(vg_vectors *v, vg_error *err) {
     for (size_t i = 0; i < v->rows; i++) zero += v->norms[i] == 0;
     /* Give back the address space (and any touched pages) past the last
      * row; the matrix keeps its place, so pointers stay valid. */
-    vg_bigbuf_shrink(&v->mat, v->rows * v->ld * sizeof(float));
-    v->data = v->mat.p;
+    if (v->borrow_map) {
+        /* The file's bytes are the matrix: the reserved space is unused. */
+        vg_bigbuf_free(&v->mat);
+        v->info.mapped = 1;
+    } else {
+        vg_bigbuf_shrink(&v->mat, v->rows * v->ld * sizeof(float));
+        v->data = v->mat.p;
+    }
     vg_bigbuf_shrink(&v->meta_words, v->rows * sizeof *v->words);
     vg_bigbuf_shrink(&v->meta_lens, v->rows * sizeof *v->word_lens);
     vg_bigbuf_shrink(&v->meta_norms, v->rows * sizeof *v->norms);
@@ -365,7 +427,7 @@ vg_status vg_vecbuild_finish(vg_vectors *v, vg_error *err) {
     v->cap_meta = VG_MIN(VG_MIN(v->meta_words.reserved / sizeof *v->words,
                                 v->meta_lens.reserved / sizeof *v->word_lens),
                          VG_MIN(v->meta_norms.reserved / sizeof *v->norms, v->cap_meta));
-    v->cap_rows = v->mat.reserved / (v->ld * sizeof(float));
+    v->cap_rows = v->borrow_map ? v->rows : v->mat.reserved / (v->ld * sizeof(float));
     v->info.rows = v->rows;
     v->info.zero_rows = zero;
     v->info.dims = v->dims;
@@ -409,6 +471,7 @@ vg_status vg_vectors_from_matrix(const char *const *words, size_t rows, const fl
 void vg_vectors_free(vg_vectors *v) {
     if (!v) return;
     vg_bigbuf_free(&v->mat);
+    if (v->borrow_map) munmap(v->borrow_map, v->borrow_len);
     vg_bigbuf_free(&v->meta_words);
     vg_bigbuf_free(&v->meta_lens);
     vg_bigbuf_free(&v->meta_norms);

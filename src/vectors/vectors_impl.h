@@ -35,9 +35,12 @@ typedef struct vg_folded_index {
 
 struct vg_vectors {
     size_t rows, dims, ld;
-    float *data;            /* == mat.p: rows x ld, page (so 64-byte) aligned */
+    float *data;            /* == mat.p (or into borrow_map): rows x ld, 64-byte aligned */
     vg_bigbuf mat;          /* the matrix's address space, grown by mremap */
-    size_t cap_rows;        /* rows that fit in mat */
+    size_t cap_rows;        /* rows that fit in mat (or in borrow_map) */
+    void *borrow_map;       /* a read-only mapping of the file used as the matrix, or NULL */
+    size_t borrow_len;      /* its length in bytes */
+    size_t borrow_rows;     /* the rows it holds */
     float *norms;           /* rows (NAN: computed by vg_vecbuild_finish) */
     const char **words;     /* rows pointers into arena, NUL-terminated */
     uint32_t *word_lens;
@@ -99,6 +102,21 @@ VG_INTERNAL vg_status vg_vecbuild_add(vg_vectors *v, const vg_rowkey *k, float n
  * no other thread may be writing rows). For readers that write values
  * in place before offering the rows. 0, or -1 when out of memory. */
 VG_INTERNAL int vg_vecbuild_reserve(vg_vectors *v, size_t rows);
+
+/* Use the stored bytes of a file as the matrix, with no copy: maps
+ * [0, offset + rows x dims x 4) of fd read-only and points the matrix at
+ * offset, which must be a multiple of 64 (the matrix's alignment). Only
+ * for native float32 rows read in place, with no filter. Returns 0, or
+ * -1 when the rows cannot be mapped (the caller then reads them). While
+ * borrowed, the rows must not move: vg_vecbuild_own copies them first. */
+VG_INTERNAL int vg_vecbuild_borrow(vg_vectors *v, int fd, uint64_t offset, size_t rows);
+/* Map in (from the page cache, reading any not cached) the borrowed rows
+ * [row, row + n) ahead of use; a no-op when nothing is borrowed. */
+VG_INTERNAL void vg_vecbuild_populate(vg_vectors *v, size_t row, size_t n);
+/* Copy a borrowed matrix into memory of its own and unmap the file, so
+ * that rows can move. Returns 0, or -1 when out of memory (the matrix
+ * stays borrowed). A no-op when nothing is borrowed. */
+VG_INTERNAL int vg_vecbuild_own(vg_vectors *v);
 /* Tests only: when non-zero, the rows reserved for an input of unknown
  * size (a pipe), so that the growth paths run on small inputs. */
 VG_INTERNAL extern size_t vg_vecbuild_test_reserve;
@@ -173,7 +191,10 @@ typedef struct vg_batch {
      * its share, before checking them); 0 or an error code (fill_err). */
     vg_status (*fill)(void *ctx, uint64_t first, size_t n, float *dst, vg_error *err);
     void *fill_ctx;
-    vg_src *hash_src;       /* fill mode: submit the rows read for hashing */
+    vg_src *hash_src;       /* fill or in_matrix mode: submit the rows (the
+                               matrix's bytes) for hashing once checked */
+    int in_matrix;          /* the stored rows are in the matrix already
+                               (a borrowed file mapping): no fill, no conv */
     vg_status fill_st[VG_BATCH_SHARES]; /* per thread share */
     vg_error fill_err[VG_BATCH_SHARES];
     const void *conv_ctx;

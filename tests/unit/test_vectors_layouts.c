@@ -82,10 +82,20 @@ static void test_npy(void **state) {
     assert_int_equal(info(v)->layout, VG_LAYOUT_NPY);
     assert_non_null(strstr(info(v)->vocab_path, "basic.vocab"));
     assert_int_equal(strlen(info(v)->vocab_sha256), 64);
+    assert_int_equal(info(v)->mapped, 0); /* hashed: read into place */
+    expect_basic3(v);
+    vg_vectors_free(v);
+    /* Unhashed native float32 at offset 128: the file's bytes are the
+     * matrix. */
+    vg_load_options opt;
+    vg_load_options_init(&opt);
+    opt.compute_hash = 0;
+    v = load_opt("vectors/basic.npy", &opt);
+    assert_int_equal(info(v)->mapped, 1);
+    assert_true(pointer_aligned(vg_vectors_data(v), 64));
     expect_basic3(v);
     vg_vectors_free(v);
     /* --vocab FILE overrides the lookup. */
-    vg_load_options opt;
     vg_load_options_init(&opt);
     char vocab[4096];
     snprintf(vocab, sizeof vocab, "%s", fixture("vectors/basic.vocab"));
@@ -95,9 +105,9 @@ static void test_npy(void **state) {
     vg_vectors_free(v);
 }
 
-/* layout-3b: a float32 little-endian .npy is read straight into the
- * matrix: a duplicate word closes its gap by moving the later rows down;
- * the file is only read. */
+/* layout-3b: a float32 little-endian .npy is mapped as the matrix; a
+ * duplicate word closes its gap by moving the later rows down, which
+ * needs a copy of its own (mapped is then 0); the file is only read. */
 static void test_npy_in_place(void **state) {
     (void)state;
     FILE *fp = fopen(fixture("vectors/dupvocab.npy"), "rb");
@@ -105,20 +115,26 @@ static void test_npy_in_place(void **state) {
     char before[512], after[512];
     size_t n = fread(before, 1, sizeof before, fp);
     fclose(fp);
-    vg_vectors *v = load("vectors/dupvocab.npy");
-    assert_int_equal(vg_vectors_rows(v), 2);
-    assert_int_equal(info(v)->duplicates, 1);
-    assert_true(pointer_aligned(vg_vectors_data(v), 64));
-    const float *g = vg_vectors_row(v, vg_vectors_find(v, "gamma", 5));
-    assert_true(g[0] == 0 && g[1] == 0 && g[2] == 0);
-    const float *a = vg_vectors_row(v, 0);
-    assert_true(a[0] == 1.0f && a[1] == 0.0f && a[2] == 0.5f);
+    for (int hash = 1; hash >= 0; hash--) { /* read into place, then mapped */
+        vg_load_options opt;
+        vg_load_options_init(&opt);
+        opt.compute_hash = hash;
+        vg_vectors *v = load_opt("vectors/dupvocab.npy", &opt);
+        assert_int_equal(vg_vectors_rows(v), 2);
+        assert_int_equal(info(v)->duplicates, 1);
+        assert_int_equal(info(v)->mapped, 0);
+        assert_true(pointer_aligned(vg_vectors_data(v), 64));
+        const float *g = vg_vectors_row(v, vg_vectors_find(v, "gamma", 5));
+        assert_true(g[0] == 0 && g[1] == 0 && g[2] == 0);
+        const float *a = vg_vectors_row(v, 0);
+        assert_true(a[0] == 1.0f && a[1] == 0.0f && a[2] == 0.5f);
+        vg_vectors_free(v);
+    }
     fp = fopen(fixture("vectors/dupvocab.npy"), "rb");
     assert_non_null(fp);
     assert_int_equal(fread(after, 1, sizeof after, fp), n);
     fclose(fp);
     assert_memory_equal(before, after, n);
-    vg_vectors_free(v);
 }
 
 /* layout-4: gzip of each layout, known by the magic bytes: the npy one
