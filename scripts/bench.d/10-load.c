@@ -4,6 +4,7 @@
  *
  *   10-load gen text|binary|npy ROWS DIMS SEED OUT   (npy also writes OUT's .vocab)
  *   10-load load FILE [--no-hash] [--threads N]
+ *   10-load touch BYTES      (time a first write of BYTES of fresh memory)
  *
  * "load" prints one line of key=value pairs: seconds (wall clock of
  * vg_vectors_load alone), stored bytes, rows, dims, the peak resident set
@@ -14,6 +15,8 @@
 #include <stdio.h>
 #include <stdlib.h>
 #include <string.h>
+#include <pthread.h>
+#include <sys/mman.h>
 #include <sys/resource.h>
 #include <time.h>
 
@@ -173,11 +176,46 @@ static int load(int argc, char **argv) {
     return 0;
 }
 
+/* The machine's floor for a copy into a new matrix: write BYTES of
+ * freshly mapped memory (advised huge pages, as the library's matrix) on
+ * two threads, in a fresh process. In a VM that has handed freed memory
+ * back to its host this is far below memory speed. */
+typedef struct touch_share {
+    char *p;
+    size_t n;
+} touch_share;
+
+static void *touch_run(void *arg) {
+    touch_share *t = arg;
+    memset(t->p, 1, t->n);
+    return NULL;
+}
+
+static int touch(size_t bytes) {
+    char *p = mmap(NULL, bytes, PROT_READ | PROT_WRITE, MAP_PRIVATE | MAP_ANONYMOUS, -1, 0);
+    if (p == MAP_FAILED) return perror("mmap"), 1;
+#ifdef MADV_HUGEPAGE
+    madvise(p, bytes, MADV_HUGEPAGE);
+#endif
+    touch_share sh[2] = {{p, bytes / 2}, {p + bytes / 2, bytes - bytes / 2}};
+    pthread_t th;
+    double t0 = now();
+    if (pthread_create(&th, NULL, touch_run, &sh[1]) != 0) return perror("pthread_create"), 1;
+    touch_run(&sh[0]);
+    pthread_join(th, NULL);
+    double t1 = now();
+    printf("seconds=%.6f bytes=%zu\n", t1 - t0, bytes);
+    munmap(p, bytes);
+    return 0;
+}
+
 int main(int argc, char **argv) {
     if (argc >= 7 && strcmp(argv[1], "gen") == 0)
         return gen(argv[2], strtoull(argv[3], NULL, 10), (unsigned)atoi(argv[4]),
                    strtoull(argv[5], NULL, 10), argv[6]);
     if (argc >= 3 && strcmp(argv[1], "load") == 0) return load(argc - 2, argv + 2);
-    fprintf(stderr, "usage: 10-load gen LAYOUT ROWS DIMS SEED OUT | load FILE [--no-hash] [--threads N]\n");
+    if (argc == 3 && strcmp(argv[1], "touch") == 0) return touch((size_t)strtoull(argv[2], NULL, 10));
+    fprintf(stderr, "usage: 10-load gen LAYOUT ROWS DIMS SEED OUT | load FILE [--no-hash] [--threads N]"
+                    " | touch BYTES\n");
     return 2;
 }

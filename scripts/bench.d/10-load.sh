@@ -9,13 +9,16 @@
 #   VG_BENCH_LOAD_LAYOUTS "text binary npy gzip"  (default: all four)
 #   VG_BENCH_REPS        timed runs per figure (default 5; 3 above 1M rows)
 #   VG_BENCH_SEED        generator seed (default 1)
+#   VG_BENCH_TOUCH_PAUSE seconds of pause before each fresh-memory timing (default 5)
 # Files are generated with a fixed seed into $VG_BENCH_DIR/load, one at a
 # time, and deleted after their rows are measured (2M x 300 text is about
 # 5.5 GB). Each load runs in a fresh process (10-load.c) that reports the
 # wall time of vg_vectors_load alone and the process's peak resident set.
 # Figures: medians with the min-max spread; GB/s are of the file as
 # stored (compressed bytes for gzip); "x cat" is the load's speed over
-# cat's (zcat's for gzip) on the same file.
+# cat's (zcat's for gzip) on the same file. A "(first write of fresh
+# memory)" row per size times the first write of the matrix's bytes into
+# new memory: any layout copied into the matrix cannot load faster.
 set -euo pipefail
 cd "$(dirname "$0")/../.."
 build=${VG_BUILD:-build}
@@ -65,6 +68,17 @@ printf '|---|---|---|---|---|---|---|---|---|---|---|---|---|\n'
 for size in $sizes; do
     rows=${size%x*} dims=${size#*x}
     reps=${VG_BENCH_REPS:-$([ "$rows" -gt 1000000 ] && echo 3 || echo 5)}
+    # The floor under any copy into a new matrix: the first write of that
+    # much fresh memory, two threads, a new process each time, after a
+    # pause (a VM hands freed memory back to its host within seconds;
+    # written again at once, it is still there and looks fast).
+    mbytes=$(( rows * dims * 4 ))
+    : > "$dir/runs"
+    for ((i = 0; i < reps; i++)); do sleep "${VG_BENCH_TOUCH_PAUSE:-5}"; "$helper" touch "$mbytes" >> "$dir/runs"; done
+    read -r m lo hi < <(sed 's/.*seconds=\([^ ]*\).*/\1/' "$dir/runs" | stats)
+    awk -v set="$size" -v b="$mbytes" -v m="$m" -v lo="$lo" -v hi="$hi" -v la="$(load)" 'BEGIN {
+        printf "| %s | (first write of fresh memory, matrix size) | - | %.2f | %.3f (%.3f-%.3f) | %.2f | | | | | | | %s |\n",
+            set, b / 1e9, m, lo, hi, b / m / 1e9, la }'
     for lay in $layouts; do
         case $lay in
         text) f="$dir/v$size.txt"; gen=text ;;
