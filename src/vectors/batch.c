@@ -74,7 +74,7 @@ vg_status vg_batch_run(vg_batch *b, vg_error *err) {
     }
     /* The rows as read are the stored bytes: hash them before any row
      * moves. */
-    if (b->hash_src && (b->fill || b->in_matrix))
+    if (b->hash_src && b->fill)
         vg_src_hash_submit(b->hash_src, v->data + b->rows[0].file_row * v->ld,
                            b->n * v->dims * sizeof(float));
     int waited = 0;
@@ -109,9 +109,6 @@ vg_status vg_batch_run(vg_batch *b, vg_error *err) {
                 /* A dropped row before this one: rows must move, which
                  * the file's read-only bytes cannot; take a copy. */
                 size_t at = (size_t)(dst - v->data);
-                /* The hasher reads the borrowed bytes: let it finish. */
-                if (b->hash_src) vg_src_hash_wait_upto(b->hash_src, vg_src_hash_submitted(b->hash_src));
-                waited = 1;
                 if (vg_vecbuild_own(v) != 0) {
                     st = vg_error_set(err, VG_ENOMEM, b->path, 0, "out of memory for the matrix");
                     break;

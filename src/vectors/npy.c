@@ -272,8 +272,6 @@ static vg_status read_c_mapped(vg_src *src, const char *data, const vg_npy_heade
     if (borrowed) {
         b.conv = NULL; /* the rows are in place already; the batches check them */
         b.in_matrix = 1;
-        b.hash_src = src;
-        vg_src_hash_by_submit(src);
     } else if (in_place) {
         b.fill = fill_rows;
         b.fill_ctx = &fc;

@@ -106,7 +106,8 @@ VG_INTERNAL int vg_vecbuild_reserve(vg_vectors *v, size_t rows);
 /* Use the stored bytes of a file as the matrix, with no copy: maps
  * [0, offset + rows x dims x 4) of fd read-only and points the matrix at
  * offset, which must be a multiple of 64 (the matrix's alignment). Only
- * for native float32 rows read in place, with no filter. Returns 0, or
+ * for native float32 rows read in place, with no filter and no hash (the
+ * hasher would read bytes that vg_vecbuild_own unmaps). Returns 0, or
  * -1 when the rows cannot be mapped (the caller then reads them). While
  * borrowed, the rows must not move: vg_vecbuild_own copies them first. */
 VG_INTERNAL int vg_vecbuild_borrow(vg_vectors *v, int fd, uint64_t offset, size_t rows);
@@ -191,10 +192,10 @@ typedef struct vg_batch {
      * its share, before checking them); 0 or an error code (fill_err). */
     vg_status (*fill)(void *ctx, uint64_t first, size_t n, float *dst, vg_error *err);
     void *fill_ctx;
-    vg_src *hash_src;       /* fill or in_matrix mode: submit the rows (the
-                               matrix's bytes) for hashing once checked */
-    int in_matrix;          /* the stored rows are in the matrix already
-                               (a borrowed file mapping): no fill, no conv */
+    vg_src *hash_src;       /* fill mode: submit the rows read for hashing */
+    int in_matrix;          /* the stored rows are in the matrix already (a
+                               borrowed file mapping, never hashed): no fill,
+                               no conv */
     vg_status fill_st[VG_BATCH_SHARES]; /* per thread share */
     vg_error fill_err[VG_BATCH_SHARES];
     const void *conv_ctx;
