@@ -500,6 +500,8 @@ vg_status vg_read_npy(vg_src *src, const vg_load_options *opt, vg_vectors **out,
         if (err->path[0] == '\0') snprintf(err->path, sizeof err->path, "%s", path);
         return st;
     }
+    /* The words stay where the vocabulary read put them. */
+    vg_vecbuild_adopt_words(v, &vc.arena);
     v->info.header_rows = h.rows;
     v->info.big_endian = h.big_endian;
     v->info.fortran_order = h.fortran;

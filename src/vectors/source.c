@@ -12,6 +12,7 @@
 #include <unistd.h>
 
 #include "../common/alloc.h"
+#include "../common/filemap.h"
 #include "vecgauge/vg_config.h"
 
 /* Report progress at most every this many stored bytes. */
@@ -62,26 +63,14 @@ static int is_gzip_magic(const char *p, size_t n) {
     return n >= 2 && (unsigned char)p[0] == 0x1f && (unsigned char)p[1] == 0x8b;
 }
 
-/* Map a regular file with at least one page of zeros after it (an
- * anonymous reservation, the file mapped over its start), so that parsers
- * may read VG_SRC_PAD bytes past the last one. */
+/* Map a regular file with at least one page of zeros after it, so that
+ * parsers may read VG_SRC_PAD bytes past the last one. */
 static vg_status map_file(vg_src *s, int fd, size_t size, vg_error *err) {
-    size_t pg = page_size();
     size_t span;
-    if (vg_add_overflow(size, 2 * pg, &span))
-        return vg_error_set(err, VG_ELIMIT, s->path, 0, "file too large to map");
-    span &= ~(pg - 1);
-    void *base = mmap(NULL, span, PROT_READ, MAP_PRIVATE | MAP_ANONYMOUS | MAP_NORESERVE, -1, 0);
-    if (base == MAP_FAILED)
-        return vg_error_set(err, VG_ENOMEM, s->path, 0, "cannot map %zu bytes: %s", size,
-                            strerror(errno));
-    void *m = mmap(base, size, PROT_READ, MAP_PRIVATE | MAP_FIXED, fd, 0);
-    if (m == MAP_FAILED) {
-        int e = errno;
-        munmap(base, span);
-        errno = e;
-        return vg_error_set(err, VG_EIO, s->path, 0, "cannot map the file: %s", strerror(e));
-    }
+    void *base = vg_filemap(fd, size, page_size(), &span);
+    if (!base)
+        return vg_error_set(err, errno == ENOMEM || errno == EOVERFLOW ? VG_ENOMEM : VG_EIO, s->path,
+                            0, "cannot map the file (%zu bytes): %s", size, strerror(errno));
     s->map_base = base;
     s->map_span = span;
     s->map = base;
@@ -206,7 +195,9 @@ vg_status vg_src_peek(vg_src *s, const char **p, size_t *n, int *whole, vg_error
 static void drop_behind(vg_src *s) {
     if (!s->map_base) return;
     uint64_t upto = s->sha ? VG_MIN(s->hashed, s->advanced) : s->advanced;
-    uint64_t pg = upto & ~(uint64_t)(page_size() - 1);
+    /* Whole 2 MiB steps: a huge-page mapping is not split to drop part
+     * of one. */
+    uint64_t pg = upto & ~(uint64_t)(VG_FILEMAP_ALIGN - 1);
     if (pg > s->dropped) {
         madvise((char *)s->map_base + s->dropped, (size_t)(pg - s->dropped), MADV_DONTNEED);
         s->dropped = pg;

@@ -14,6 +14,7 @@
 #endif
 
 #include "../common/alloc.h"
+#include "../common/filemap.h"
 #include "../common/text.h"
 #include "../common/threads.h"
 
@@ -133,10 +134,11 @@ int vg_vecbuild_borrow(vg_vectors *v, int fd, uint64_t offset, size_t rows) {
      * (first touches of fresh anonymous memory are what a copy costs
      * most, in a VM above all). vg_vecbuild_populate maps them in ahead
      * of the readers, a batch at a time. */
-    void *m = mmap(NULL, len, PROT_READ, MAP_PRIVATE, fd, 0);
-    if (m == MAP_FAILED) return -1;
+    size_t span;
+    void *m = vg_filemap(fd, len, 0, &span);
+    if (!m) return -1;
     v->borrow_map = m;
-    v->borrow_len = len;
+    v->borrow_len = span;
     v->borrow_rows = rows;
     v->data = (float *)((char *)m + offset);
     v->cap_rows = rows;
@@ -159,6 +161,13 @@ void vg_vecbuild_populate(vg_vectors *v, size_t row, size_t n) {
     (void)row;
     (void)n;
 #endif
+}
+
+void vg_vecbuild_adopt_words(vg_vectors *v, vg_arena *a) {
+    if (v->keep_active || v->words_adopted) return;
+    v->vocab_arena = *a;
+    *a = (vg_arena)VG_ARENA_INIT;
+    v->words_adopted = 1;
 }
 
 int vg_vecbuild_own(vg_vectors *v) {
@@ -365,8 +374,8 @@ vg_status vg_vecbuild_add(vg_vectors *v, const vg_rowkey *k, float norm, float *
     }
     if (reserve_matrix(v, v->rows + 1) != 0 || reserve_meta(v, v->rows + 1) != 0)
         return vg_error_set(err, VG_ENOMEM, path, line, "out of memory at row %zu", v->rows + 1);
-    char *stored = vg_arena_strndup(&v->arena, k->word, k->len);
-    char *key = stored;
+    const char *stored = v->words_adopted ? k->word : vg_arena_strndup(&v->arena, k->word, k->len);
+    const char *key = stored;
     if (stored && k->key != k->word) key = vg_arena_strndup(&v->arena, k->key, k->klen);
     if (!stored || !key ||
         vg_strmap_put_hashed(&v->index, key, k->klen, k->hash, v->rows, NULL) < 0)
@@ -476,6 +485,7 @@ void vg_vectors_free(vg_vectors *v) {
     vg_bigbuf_free(&v->meta_lens);
     vg_bigbuf_free(&v->meta_norms);
     vg_arena_free(&v->arena);
+    vg_arena_free(&v->vocab_arena);
     vg_strmap_free(&v->index);
     if (v->folded) {
         vg_strmap_free(&v->folded->map);

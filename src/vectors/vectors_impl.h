@@ -47,6 +47,7 @@ struct vg_vectors {
     size_t cap_meta;        /* capacity of norms, words, word_lens */
     vg_bigbuf meta_words, meta_lens, meta_norms; /* their storage (huge pages, mremap) */
     vg_arena arena;         /* words and (non-NFC) index keys */
+    vg_arena vocab_arena;   /* words adopted from a vocabulary file, or empty */
     vg_strmap index;        /* NFC(word) -> row */
     vg_folded_index *folded;/* fold(word) -> lowest row; built on first use */
     vg_vectors_info info;
@@ -58,6 +59,7 @@ struct vg_vectors {
     size_t keep_first;
     size_t seen_rows;       /* rows offered to the builder (file order) */
     int norms_pending;      /* some norms are NAN, to compute at finish */
+    int words_adopted;      /* words offered live in vocab_arena: not copied */
     unsigned threads;       /* for the work at finish */
 };
 
@@ -118,6 +120,13 @@ VG_INTERNAL void vg_vecbuild_populate(vg_vectors *v, size_t row, size_t n);
  * that rows can move. Returns 0, or -1 when out of memory (the matrix
  * stays borrowed). A no-op when nothing is borrowed. */
 VG_INTERNAL int vg_vecbuild_own(vg_vectors *v);
+
+/* Take over the arena that holds every word the caller will offer (a
+ * vocabulary file's words, NUL-terminated): vg_vecbuild_add then keeps
+ * pointers into it instead of copying each word, and the vectors free it.
+ * *a is left empty. Not with a row filter, which would keep every word's
+ * bytes alive for the few rows kept: then nothing is taken. */
+VG_INTERNAL void vg_vecbuild_adopt_words(vg_vectors *v, vg_arena *a);
 /* Tests only: when non-zero, the rows reserved for an input of unknown
  * size (a pipe), so that the growth paths run on small inputs. */
 VG_INTERNAL extern size_t vg_vecbuild_test_reserve;

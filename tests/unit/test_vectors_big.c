@@ -11,11 +11,15 @@
  */
 #include "vgtest.h"
 
+#include <errno.h>
+#include <fcntl.h>
 #include <signal.h>
+#include <sys/mman.h>
 #include <sys/stat.h>
 #include <sys/wait.h>
 #include <zlib.h>
 
+#include "common/filemap.h"
 #include "common/sha256.h"
 #include "vectors/vectors_impl.h"
 
@@ -158,6 +162,46 @@ static void expect_exact(const vg_vectors *v, size_t rows) {
 
 /* roundtrip-1: text (with and without header), binary and npy written
  * here, plain and gzip, read back identical, on 1, 2 and 4 threads. */
+/* vg_filemap: the file's bytes at a 2 MiB boundary, zeros after them for
+ * at least the padding asked for, and an empty file maps too. The
+ * boundary is what a huge-page mapping of the page cache needs: the
+ * kernel maps a 2 MiB folio with one entry only where the address and
+ * the file offset agree modulo 2 MiB (from memory: Linux's transhuge
+ * documentation). */
+static void test_filemap(void **state) {
+    (void)state;
+    const char *path = temp_path("filemap.bin");
+    const size_t sizes[] = {0, 1, 4095, 4096, 5000, 3u << 20};
+    for (size_t c = 0; c < sizeof sizes / sizeof sizes[0]; c++) {
+        size_t n = sizes[c];
+        unsigned char *want = malloc(n ? n : 1);
+        assert_non_null(want);
+        for (size_t i = 0; i < n; i++) want[i] = (unsigned char)(i * 131u + 7u);
+        FILE *fp = fopen(path, "wb");
+        assert_non_null(fp);
+        assert_int_equal(fwrite(want, 1, n, fp), n);
+        fclose(fp);
+        int fd = open(path, O_RDONLY);
+        assert_true(fd >= 0);
+        size_t span = 0;
+        unsigned char *m = vg_filemap(fd, n, 100, &span);
+        close(fd); /* the mapping outlives the descriptor */
+        assert_non_null(m);
+        assert_int_equal((uintptr_t)m % VG_FILEMAP_ALIGN, 0);
+        assert_true(span >= n + 100);
+        assert_int_equal(span % (size_t)sysconf(_SC_PAGESIZE), 0);
+        assert_int_equal(n ? memcmp(m, want, n) : 0, 0);
+        for (size_t i = n; i < n + 100; i++) assert_int_equal(m[i], 0);
+        assert_int_equal(munmap(m, span), 0);
+        free(want);
+    }
+    unlink(path);
+    size_t span;
+    errno = 0;
+    assert_null(vg_filemap(-1, 10, 0, &span)); /* not a file */
+    assert_int_not_equal(errno, 0);
+}
+
 static void test_round_trips(void **state) {
     (void)state;
     static const struct {
@@ -407,6 +451,7 @@ static void test_pipes(void **state) {
 
 int main(void) {
     const struct CMUnitTest tests[] = {
+        cmocka_unit_test(test_filemap),
         cmocka_unit_test(test_round_trips),
         cmocka_unit_test(test_errors_deep),
         cmocka_unit_test(test_filter_and_max),

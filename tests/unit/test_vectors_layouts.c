@@ -93,6 +93,9 @@ static void test_npy(void **state) {
     v = load_opt("vectors/basic.npy", &opt);
     assert_int_equal(info(v)->mapped, 1);
     assert_true(pointer_aligned(vg_vectors_data(v), 64));
+    /* The file is mapped from a 2 MiB boundary (see test_filemap); its
+     * data start 128 bytes in. */
+    assert_true(pointer_aligned((const char *)vg_vectors_data(v) - 128, (size_t)2 << 20));
     expect_basic3(v);
     vg_vectors_free(v);
     /* --vocab FILE overrides the lookup. */
