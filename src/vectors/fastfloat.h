@@ -44,12 +44,19 @@ VG_INTERNAL int vg_scan_float(const char *p, const char *end, const char **tok_e
 extern const double vg_inv10_tab[8];     /* 10^-k, correctly rounded */
 extern const uint32_t vg_pow10_u32[9];   /* 10^k */
 
-/* Eight bytes as digit values (byte i = s[i] - '0'), and in *k how many
- * of them, from the first, are digits (0..8). A byte is a digit when
- * (c ^ '0') < 10; adding 0x76 sets the top bit of every byte at or above
- * 10 without carrying out of a byte below 0x80, and or-ing x itself flags
- * the bytes at or above 0x80. A carry from a flagged byte can only
- * disturb the bytes after it, which the count never reaches. */
+/* How many of the eight bytes of x (bytes of text, each xor '0'), from
+ * the first, are digits (0..8). A byte is a digit when (c ^ '0') < 10;
+ * adding 0x76 sets the top bit of every byte at or above 10 without
+ * carrying out of a byte below 0x80, and or-ing x itself flags the bytes
+ * at or above 0x80. A carry from a flagged byte can only disturb the
+ * bytes after it, which the count never reaches. */
+static inline unsigned vg_digit_run8(uint64_t x) {
+    uint64_t nondigit = ((x + 0x7676767676767676ull) | x) & 0x8080808080808080ull;
+    return nondigit ? (unsigned)__builtin_ctzll(nondigit) >> 3 : 8u;
+}
+
+/* Eight bytes of s as digit values (byte i = s[i] - '0', the first in the
+ * low byte), and in *k how many of them, from the first, are digits. */
 static inline uint64_t vg_digits8(const char *s, unsigned *k) {
     uint64_t v;
     memcpy(&v, s, 8);
@@ -57,8 +64,7 @@ static inline uint64_t vg_digits8(const char *s, unsigned *k) {
     v = __builtin_bswap64(v);
 #endif
     uint64_t x = v ^ 0x3030303030303030ull;
-    uint64_t nondigit = ((x + 0x7676767676767676ull) | x) & 0x8080808080808080ull;
-    *k = nondigit ? (unsigned)__builtin_ctzll(nondigit) >> 3 : 8u;
+    *k = vg_digit_run8(x);
     return x;
 }
 
@@ -109,6 +115,15 @@ static inline int vg_parse_token(const char *a, size_t len, float *out) {
     uint64_t w;
     if (k1 == n && n - 1 < 7) { /* 1 to 7 digits (n - 1 wraps for n == 0) */
         w = k1 ? vg_value8(x, k1) : 0;
+    } else if (n <= 8 && k1 + 2 <= n && s[k1] == '.') {
+        /* The whole number is in the eight bytes read (as "0.077555", the
+         * commonest shape in vector files): drop the point's byte and
+         * convert every digit in one step. k1 <= 6, so no shift reaches
+         * 64. */
+        k2 = (unsigned)(n - k1 - 1);
+        uint64_t c = (x & ((1ull << (8 * k1)) - 1)) | ((x >> (8 * (k1 + 1))) << (8 * k1));
+        if (vg_digit_run8(c) < k1 + k2) return vg_parse_token_slow(a, len, out);
+        w = vg_value8(c, k1 + k2);
     } else if (k1 < 8 && s[k1] == '.' && n - k1 - 1 < 8) {
         k2 = (unsigned)(n - k1 - 1);
         unsigned kk;
