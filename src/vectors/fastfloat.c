@@ -10,6 +10,12 @@
  * roundings of relative error 2^-53 each, plus digits dropped past the
  * 19th, which add less than 1e-18).
  *
+ * The commonest case is the simplest: with w < 2^24 and |e| <= 10, w and
+ * 10^|e| are exact floats and one float multiplication or division is
+ * the correctly rounded result (Clinger's argument in single precision);
+ * the inline token path (fastfloat.h) takes it for every number of up to
+ * 7 significant digits, as vector files print them.
+ *
  * Rounding q to float (24-bit significand) then gives the correctly
  * rounded float unless q lies within that error of a float rounding
  * boundary, the midpoint between two adjacent floats, whose low 29
@@ -95,6 +101,8 @@ static inline int finish(uint64_t w, int e10, int neg, float *out) {
 
 const double vg_inv10_tab[8] = {1e0, 1e-1, 1e-2, 1e-3, 1e-4, 1e-5, 1e-6, 1e-7};
 const uint32_t vg_pow10_u32[9] = {1, 10, 100, 1000, 10000, 100000, 1000000, 10000000, 100000000};
+/* Every power up to 10^10 is exact in float (5^10 < 2^24). */
+const float vg_pow10_f32[8] = {1e0f, 1e1f, 1e2f, 1e3f, 1e4f, 1e5f, 1e6f, 1e7f};
 
 int vg_parse_token_slow(const char *a, size_t len, float *out) {
     const char *t;

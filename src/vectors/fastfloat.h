@@ -11,6 +11,7 @@
 #ifndef VG_FASTFLOAT_H
 #define VG_FASTFLOAT_H
 
+#include <float.h>
 #include <stddef.h>
 #include <stdint.h>
 #include <string.h>
@@ -43,6 +44,7 @@ VG_INTERNAL int vg_scan_float(const char *p, const char *end, const char **tok_e
 
 extern const double vg_inv10_tab[8];     /* 10^-k, correctly rounded */
 extern const uint32_t vg_pow10_u32[9];   /* 10^k */
+extern const float vg_pow10_f32[8];      /* 10^k, exact */
 
 /* How many of the eight bytes of x (bytes of text, each xor '0'), from
  * the first, are digits (0..8). A byte is a digit when (c ^ '0') < 10;
@@ -80,11 +82,22 @@ static inline uint32_t vg_value8(uint64_t x, unsigned k) {
     return (uint32_t)((x * 10000 + (x >> 32)) & 0xFFFFFFFFull);
 }
 
-/* w * 10^-k (w < 10^15, k < 8) rounded to float when the margin test
- * proves the result equal to the correctly rounded one: w is exact in
- * double and 10^-k within half an ulp, so the product is within 1.5 ulps.
+/* w * 10^-k (w < 10^15, k < 8) rounded to float. Below 2^24 by one
+ * exact division; above, when the margin test proves the result equal to
+ * the correctly rounded one: w is exact in double and 10^-k within half
+ * an ulp, so the product is within 1.5 ulps.
  * Returns 0 when it cannot prove it (the caller asks strtof). */
 static inline int vg_float_round(uint64_t w, unsigned k, int neg, float *out) {
+#if FLT_EVAL_METHOD == 0 /* float arithmetic in float (SSE, not x87): a single rounding */
+    if (w < ((uint64_t)1 << 24)) {
+        /* w and 10^k are both exact floats, so one IEEE division, which
+         * rounds correctly, gives exactly strtof's float (Clinger's fast
+         * path, in single precision; see fastfloat.c). */
+        float f = (float)w / vg_pow10_f32[k];
+        *out = neg ? -f : f;
+        return 1;
+    }
+#endif
     double q = (double)w * vg_inv10_tab[k];
     uint64_t bits;
     memcpy(&bits, &q, sizeof bits);

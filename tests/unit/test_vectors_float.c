@@ -122,6 +122,30 @@ static void test_vector_style(void **state) {
     });
 }
 
+/* float-1b: w / 10^k for w below 2^24 and k up to 7, the shape the float
+ * division path takes, with the integers at and just past 2^24, where it
+ * must give way (Clinger's exactness condition in single precision). */
+static void test_short_decimals(void **state) {
+    (void)state;
+    RUN("w / 10^k, w near or below 2^24", 1000000, {
+        uint32_t w = (uint32_t)(rng() & 0xFFFFFFu);
+        if (i_ % 64 == 0) w = 16777215u + (uint32_t)(rng() % 3);
+        int k = (int)(rng() % 8);
+        char digits[16];
+        int nd = snprintf(digits, sizeof digits, "%0*u", k + 1, (unsigned)w);
+        size_t m = 0;
+        if (rng() & 1) s[m++] = '-';
+        memcpy(s + m, digits, (size_t)(nd - k));
+        m += (size_t)(nd - k);
+        if (k) {
+            s[m++] = '.';
+            memcpy(s + m, digits + nd - k, (size_t)k);
+            m += (size_t)k;
+        }
+        s[m] = '\0';
+    });
+}
+
 /* float-2: every finite float (uniform over bit patterns), printed with
  * 9 significant digits (enough to round-trip, FLT_DECIMAL_DIG) and with
  * fewer, in both %e and %g forms: subnormals and the extremes included. */
@@ -225,7 +249,8 @@ static void test_edges(void **state) {
 
 int main(void) {
     const struct CMUnitTest tests[] = {
-        cmocka_unit_test(test_vector_style),    cmocka_unit_test(test_all_floats),
+        cmocka_unit_test(test_vector_style),    cmocka_unit_test(test_short_decimals),
+        cmocka_unit_test(test_all_floats),
         cmocka_unit_test(test_random_decimals), cmocka_unit_test(test_midpoints),
         cmocka_unit_test(test_edges),
     };
