@@ -10,11 +10,11 @@
  * roundings of relative error 2^-53 each, plus digits dropped past the
  * 19th, which add less than 1e-18).
  *
- * The commonest case is the simplest: with w < 2^24 and |e| <= 10, w and
- * 10^|e| are exact floats and one float multiplication or division is
- * the correctly rounded result (Clinger's argument in single precision);
- * the inline token path (fastfloat.h) takes it for every number of up to
- * 7 significant digits, as vector files print them.
+ * The commonest case is the simplest: with w < 2^24 and e = -k, k <= 7,
+ * w and 10^k are exact floats and one float division is the correctly
+ * rounded result (Clinger's argument in single precision). Both entry
+ * points take it (vg_float_round) for the plain [-]digits[.digits] shape
+ * with up to 7 significant digits, as vector files print numbers.
  *
  * Rounding q to float (24-bit significand) then gives the correctly
  * rounded float unless q lies within that error of a float rounding
