@@ -68,9 +68,11 @@ static int is_gzip_magic(const char *p, size_t n) {
 static vg_status map_file(vg_src *s, int fd, size_t size, vg_error *err) {
     size_t span;
     void *base = vg_filemap(fd, size, page_size(), &span);
+    if (!base && errno == EOVERFLOW)
+        return vg_error_set(err, VG_ELIMIT, s->path, 0, "file too large to map");
     if (!base)
-        return vg_error_set(err, errno == ENOMEM || errno == EOVERFLOW ? VG_ENOMEM : VG_EIO, s->path,
-                            0, "cannot map the file (%zu bytes): %s", size, strerror(errno));
+        return vg_error_set(err, errno == ENOMEM ? VG_ENOMEM : VG_EIO, s->path, 0,
+                            "cannot map the file (%zu bytes): %s", size, strerror(errno));
     s->map_base = base;
     s->map_span = span;
     s->map = base;

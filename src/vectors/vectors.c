@@ -108,6 +108,8 @@ int vg_all_finite(const float *x, size_t n) {
  * memory when written. */
 static int reserve_matrix(vg_vectors *v, size_t need) {
     if (need <= v->cap_rows) return 0;
+    /* A borrowed matrix cannot grow: take a copy first, which may have
+     * room already. */
     if (v->borrow_map && vg_vecbuild_own(v) != 0) return -1;
     if (need <= v->cap_rows) return 0;
     size_t ncap = v->cap_rows ? v->cap_rows : 1024;
@@ -139,7 +141,6 @@ int vg_vecbuild_borrow(vg_vectors *v, int fd, uint64_t offset, size_t rows) {
     if (!m) return -1;
     v->borrow_map = m;
     v->borrow_len = span;
-    v->borrow_rows = rows;
     v->data = (float *)((char *)m + offset);
     v->cap_rows = rows;
     return 0;
@@ -147,8 +148,8 @@ int vg_vecbuild_borrow(vg_vectors *v, int fd, uint64_t offset, size_t rows) {
 
 void vg_vecbuild_populate(vg_vectors *v, size_t row, size_t n) {
 #ifdef MADV_POPULATE_READ
-    if (!v->borrow_map || row >= v->borrow_rows) return;
-    n = VG_MIN(n, v->borrow_rows - row);
+    if (!v->borrow_map || row >= v->cap_rows) return;
+    n = VG_MIN(n, v->cap_rows - row);
     size_t pg = (size_t)sysconf(_SC_PAGESIZE);
     uintptr_t base = (uintptr_t)v->borrow_map, end = base + v->borrow_len;
     uintptr_t b = (uintptr_t)(v->data + row * v->ld) & ~(uintptr_t)(pg - 1);
@@ -172,13 +173,12 @@ void vg_vecbuild_adopt_words(vg_vectors *v, vg_arena *a) {
 
 int vg_vecbuild_own(vg_vectors *v) {
     if (!v->borrow_map) return 0;
-    size_t bytes = v->borrow_rows * v->ld * sizeof(float);
+    size_t bytes = v->cap_rows * v->ld * sizeof(float); /* the borrowed rows */
     if (vg_bigbuf_reserve(&v->mat, bytes) != 0) return -1;
     memcpy(v->mat.p, v->data, bytes);
     munmap(v->borrow_map, v->borrow_len);
     v->borrow_map = NULL;
     v->borrow_len = 0;
-    v->borrow_rows = 0;
     v->data = v->mat.p;
     v->cap_rows = v->mat.reserved / (v->ld * sizeof(float));
     return 0;

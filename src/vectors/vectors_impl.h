@@ -37,10 +37,10 @@ struct vg_vectors {
     size_t rows, dims, ld;
     float *data;            /* == mat.p (or into borrow_map): rows x ld, 64-byte aligned */
     vg_bigbuf mat;          /* the matrix's address space, grown by mremap */
-    size_t cap_rows;        /* rows that fit in mat (or in borrow_map) */
+    size_t cap_rows;        /* rows that fit in mat (or, while borrowed, the rows
+                               borrow_map holds) */
     void *borrow_map;       /* a read-only mapping of the file used as the matrix, or NULL */
     size_t borrow_len;      /* its length in bytes */
-    size_t borrow_rows;     /* the rows it holds */
     float *norms;           /* rows (NAN: computed by vg_vecbuild_finish) */
     const char **words;     /* rows pointers into arena, NUL-terminated */
     uint32_t *word_lens;

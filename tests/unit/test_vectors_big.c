@@ -160,8 +160,6 @@ static void expect_exact(const vg_vectors *v, size_t rows) {
     assert_int_equal(vg_vectors_get_info(v)->zero_rows, 1);
 }
 
-/* roundtrip-1: text (with and without header), binary and npy written
- * here, plain and gzip, read back identical, on 1, 2 and 4 threads. */
 /* vg_filemap: the file's bytes at a 2 MiB boundary, zeros after them for
  * at least the padding asked for, and an empty file maps too. The
  * boundary is what a huge-page mapping of the page cache needs: the
@@ -202,6 +200,8 @@ static void test_filemap(void **state) {
     assert_int_not_equal(errno, 0);
 }
 
+/* roundtrip-1: text (with and without header), binary and npy written
+ * here, plain and gzip, read back identical, on 1, 2 and 4 threads. */
 static void test_round_trips(void **state) {
     (void)state;
     static const struct {
