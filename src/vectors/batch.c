@@ -40,8 +40,8 @@ static void convert_share(void *ctx, unsigned t, unsigned nt) {
         vg_batch_row *r = &b->rows[i];
         float *dst = v->data + r->file_row * v->ld;
         if (b->conv && !b->fill) b->conv(dst, r->src, v->dims, b->conv_ctx);
-        r->bad = !vg_all_finite(dst, v->dims);
-        r->norm = r->bad ? 0 : vg_row_norm(dst, v->dims);
+        r->norm = 0;
+        r->bad = !vg_row_norm_finite(dst, v->dims, &r->norm);
         r->keyfail = vg_rowkey_make(v, r->word, r->wlen, &r->key) != 0;
     }
 }

@@ -266,7 +266,8 @@ vg_status vg_read_binary(vg_src *src, const vg_detect *d, const vg_load_options 
             goto done;
         }
         if (got == 1 && *nl == '\n') vg_seq_skip(&q, 1, err);
-        if (!vg_all_finite(tmp, dims)) {
+        float norm;
+        if (!vg_row_norm_finite(tmp, dims, &norm)) {
             if (opt->skip_bad_rows) {
                 v->info.bad_rows++;
                 continue;
@@ -285,7 +286,7 @@ vg_status vg_read_binary(vg_src *src, const vg_detect *d, const vg_load_options 
             goto done;
         }
         float *dst;
-        st = vg_vecbuild_add(v, &k, vg_row_norm(tmp, dims), &dst, path, 0, err);
+        st = vg_vecbuild_add(v, &k, norm, &dst, path, 0, err);
         vg_rowkey_clear(&k);
         if (st != VG_OK) goto done;
         if (dst) memcpy(dst, tmp, row_bytes);

@@ -355,7 +355,8 @@ static vg_status read_c_order(vg_seq *q, const vg_npy_header *h, const vg_vocab 
         }
         convert(tmp, p, dims, h);
         vg_seq_skip(q, rb, err);
-        if (!vg_all_finite(tmp, dims)) {
+        float norm;
+        if (!vg_row_norm_finite(tmp, dims, &norm)) {
             vg_rowkey_clear(&k);
             if (opt->skip_bad_rows) {
                 v->info.bad_rows++;
@@ -365,7 +366,7 @@ static vg_status read_c_order(vg_seq *q, const vg_npy_header *h, const vg_vocab 
             break;
         }
         float *dst;
-        st = vg_vecbuild_add(v, &k, vg_row_norm(tmp, dims), &dst, path, 0, err);
+        st = vg_vecbuild_add(v, &k, norm, &dst, path, 0, err);
         vg_rowkey_clear(&k);
         if (st != VG_OK) break;
         if (dst) memcpy(dst, tmp, dims * sizeof(float));

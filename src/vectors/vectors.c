@@ -54,7 +54,7 @@ vg_status vg_layout_parse(const char *name, vg_layout *out) {
  * ((s0 + s1) + (s2 + s3)) + ((s4 + s5) + (s6 + s7)). The SSE2 code does
  * exactly these double operations in that order (two sums per register,
  * no fused multiply-add), so every build gives the same bits. */
-float vg_row_norm(const float *x, size_t n) {
+static double sum_squares(const float *x, size_t n) {
     double s[8] = {0, 0, 0, 0, 0, 0, 0, 0};
     size_t j = 0;
 #ifdef __SSE2__
@@ -77,7 +77,21 @@ float vg_row_norm(const float *x, size_t n) {
         for (size_t k = 0; k < 8; k++) s[k] += (double)x[j + k] * x[j + k];
 #endif
     for (; j < n; j++) s[j % 8] += (double)x[j] * x[j];
-    return (float)sqrt(((s[0] + s[1]) + (s[2] + s[3])) + ((s[4] + s[5]) + (s[6] + s[7])));
+    return ((s[0] + s[1]) + (s[2] + s[3])) + ((s[4] + s[5]) + (s[6] + s[7]));
+}
+
+float vg_row_norm(const float *x, size_t n) { return (float)sqrt(sum_squares(x, n)); }
+
+int vg_row_norm_finite(const float *x, size_t n, float *norm) {
+    /* The squares of finite floats, summed in double, stay finite (each
+     * is below 2^256; no row has 2^700 values), while one NaN or infinity
+     * makes the sum NaN or infinite (squares are never negative, so no
+     * infinity can cancel): the sum alone tells whether the row is
+     * finite, and the row is read once instead of twice. */
+    double q = sum_squares(x, n);
+    if (!isfinite(q)) return 0;
+    *norm = (float)sqrt(q);
+    return 1;
 }
 
 int vg_all_finite(const float *x, size_t n) {

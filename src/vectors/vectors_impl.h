@@ -148,6 +148,10 @@ VG_INTERNAL vg_status vg_vecbuild_finish(vg_vectors *v, vg_error *err);
  * build gives identical norms for identical values. */
 VG_INTERNAL float vg_row_norm(const float *x, size_t n);
 
+/* vg_row_norm and vg_all_finite in one pass: 1 with *norm set when
+ * every x[i] is finite, else 0 (*norm untouched). */
+VG_INTERNAL int vg_row_norm_finite(const float *x, size_t n, float *norm);
+
 /* 1 if every x[i] is finite. */
 VG_INTERNAL int vg_all_finite(const float *x, size_t n);
 
@@ -252,9 +256,10 @@ VG_INTERNAL vg_status vg_npy_parse_header(const char *p, size_t n, const char *p
 /* ---- vocabulary files (vocab.c) --------------------------------------- */
 
 typedef struct vg_vocab {
-    const char **words;
+    const char **words;        /* words[i], lens[i]: line i's word */
     uint32_t *lens;
     size_t n;
+    vg_bigbuf words_buf, lens_buf; /* behind words and lens */
     vg_arena arena;
     char sha256[65];
     int hashed;

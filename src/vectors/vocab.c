@@ -45,13 +45,24 @@ static int find_beside(const char *vectors_path, char *out, size_t size, char *t
     return 0;
 }
 
+/* Room for n words in the two lists: address space that grows by mremap
+ * (no copying) and is backed only where written, so a reservation from
+ * the file's size costs nothing. */
+static int reserve_words(vg_vocab *vc, size_t n) {
+    size_t wb, lb;
+    if (vg_mul_overflow(n, sizeof *vc->words, &wb) || vg_mul_overflow(n, sizeof *vc->lens, &lb) ||
+        vg_bigbuf_reserve(&vc->words_buf, wb) != 0 || vg_bigbuf_reserve(&vc->lens_buf, lb) != 0)
+        return -1;
+    vc->words = vc->words_buf.p;
+    vc->lens = vc->lens_buf.p;
+    return 0;
+}
+
 static int push_word(vg_vocab *vc, size_t *cap, const char *w, size_t len) {
     if (vc->n == *cap) {
-        size_t c1 = *cap, c2 = *cap;
-        if (vg_grow((void **)&vc->words, &c1, vc->n + 1, sizeof *vc->words) != 0 ||
-            vg_grow((void **)&vc->lens, &c2, vc->n + 1, sizeof *vc->lens) != 0)
-            return -1;
-        *cap = VG_MIN(c1, c2);
+        size_t want = *cap ? *cap : 4096;
+        if (vg_mul_overflow(want, 2, &want) || reserve_words(vc, want) != 0) return -1;
+        *cap = want;
     }
     char *s = vg_arena_strndup(&vc->arena, w, len);
     if (!s) return -1;
@@ -78,8 +89,16 @@ vg_status vg_vocab_read(const char *explicit_path, const char *vectors_path, siz
     vg_src *src = NULL;
     vg_status st = vg_src_open(path, hash, NULL, NULL, &src, err);
     if (st != VG_OK) return st;
-    st = vg_src_start(src, 1, 0, err);
     size_t cap = 0;
+    /* A plain file of S bytes holds at most S / 2 + 1 words (a byte and a
+     * newline each): reserve that once and the lists never move. */
+    if (!vg_src_gzip(src) && vg_src_stream_bound(src) > 0) {
+        uint64_t most = vg_src_stream_bound(src) / 2 + 1;
+        if (max_words && most > max_words) most = max_words;
+        if (most <= SIZE_MAX / sizeof(void *) && reserve_words(vc, (size_t)most) == 0)
+            cap = (size_t)most;
+    }
+    st = vg_src_start(src, 1, 0, err);
     uint64_t line = 0, blank_at = 0;
     vg_chunk c;
     int rc = 0;
@@ -122,8 +141,8 @@ vg_status vg_vocab_read(const char *explicit_path, const char *vectors_path, siz
 }
 
 void vg_vocab_free(vg_vocab *vc) {
-    vg_free(vc->words);
-    vg_free(vc->lens);
+    vg_bigbuf_free(&vc->words_buf);
+    vg_bigbuf_free(&vc->lens_buf);
     vg_arena_free(&vc->arena);
     vc->words = NULL;
     vc->lens = NULL;

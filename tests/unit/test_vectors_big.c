@@ -12,6 +12,7 @@
 #include "vgtest.h"
 
 #include <errno.h>
+#include <float.h>
 #include <fcntl.h>
 #include <signal.h>
 #include <sys/mman.h>
@@ -405,6 +406,154 @@ static void test_norms(void **state) {
     unlink(path);
 }
 
+/* finite-1: the one-pass check and norm. The reference for "finite" is
+ * C's isfinite (an IEEE 754 float is NaN or infinite exactly when its
+ * exponent bits are all ones); the norm must have vg_row_norm's bits.
+ * Every length 0..40 and 300 (the SIMD loop and its tail), extremes
+ * (+-FLT_MAX, the smallest subnormal, -0) among the values, and a NaN
+ * (quiet, signalling, negative, with a payload) or an infinity of either
+ * sign at every position. */
+static void test_norm_finite(void **state) {
+    (void)state;
+    static const uint32_t bad_bits[] = {0x7fc00000u, 0x7f800001u, 0xffc00001u,
+                                        0xffffffffu, 0x7f800000u, 0xff800000u};
+    float x[300];
+    size_t lens[42];
+    for (size_t i = 0; i <= 40; i++) lens[i] = i;
+    lens[41] = 300;
+    for (size_t li = 0; li < 42; li++) {
+        size_t n = lens[li];
+        for (size_t j = 0; j < n; j++) {
+            uint64_t r = rng();
+            if (r % 7 == 0) {
+                x[j] = r & 8 ? FLT_MAX : -FLT_MAX;
+            } else if (r % 7 == 1) {
+                x[j] = 0x1p-149f;
+            } else if (r % 7 == 2) {
+                x[j] = -0.0f;
+            } else {
+                x[j] = (float)(((double)(r >> 11) * 0x1p-53 - 0.5) * 4.0);
+            }
+        }
+        float norm = -1;
+        assert_int_equal(vg_row_norm_finite(x, n, &norm), 1);
+        float ref = vg_row_norm(x, n);
+        assert_memory_equal(&norm, &ref, sizeof norm);
+        assert_int_equal(vg_all_finite(x, n), 1);
+        for (size_t pos = 0; pos < n; pos++) {
+            for (size_t b = 0; b < sizeof bad_bits / sizeof bad_bits[0]; b++) {
+                float keep = x[pos];
+                memcpy(&x[pos], &bad_bits[b], sizeof x[pos]);
+                assert_false(isfinite(x[pos]));
+                norm = -1;
+                assert_int_equal(vg_row_norm_finite(x, n, &norm), 0);
+                assert_true(norm == -1); /* untouched */
+                assert_int_equal(vg_all_finite(x, n), 0);
+                x[pos] = keep;
+            }
+        }
+    }
+}
+
+/* finite-2: a NaN or an infinity in a binary or npy row, plain (rows
+ * checked in place on all threads) or gzip (row by row), at the first, a
+ * middle and the last value: an error naming the row and the value;
+ * skip_bad_rows drops exactly that row and the next moves down intact. */
+static void test_nonfinite_files(void **state) {
+    (void)state;
+    static const char *names[2][2] = {{"nf.bin", "nf.bin.gz"}, {"nf.npy", "nf.npy.gz"}};
+    static const size_t cols[] = {0, 37, DIMS - 1};
+    const size_t row = 1234, rows = 3000;
+    for (size_t l = 0; l < 2; l++) {
+        for (int gz = 0; gz < 2; gz++) {
+            for (size_t c = 0; c < 3; c++) {
+                char path[4096];
+                snprintf(path, sizeof path, "%s", temp_path(names[l][gz]));
+                float keep = matrix[row * DIMS + cols[c]];
+                matrix[row * DIMS + cols[c]] = c == 1 ? -INFINITY : NAN;
+                write_set(path, l ? W_NPY : W_BINARY, gz, rows);
+                matrix[row * DIMS + cols[c]] = keep;
+                vg_load_options opt;
+                vg_load_options_init(&opt);
+                opt.threads = 2;
+                vg_vectors *v = (vg_vectors *)1;
+                vg_error err;
+                assert_int_equal(vg_vectors_load(path, &opt, &v, &err), VG_EVALUE);
+                assert_null(v);
+                char want[64];
+                snprintf(want, sizeof want, "row %zu ", row + 1);
+                assert_non_null(strstr(err.message, want));
+                snprintf(want, sizeof want, "value %zu is not finite", cols[c] + 1);
+                assert_non_null(strstr(err.message, want));
+                opt.skip_bad_rows = 1;
+                assert_vg_ok(vg_vectors_load(path, &opt, &v, &err), &err);
+                assert_int_equal(vg_vectors_get_info(v)->bad_rows, 1);
+                assert_int_equal(vg_vectors_rows(v), rows - 1);
+                assert_int_equal(vg_vectors_find(v, words[row], strlen(words[row])),
+                                 VG_NOT_FOUND);
+                size_t r = vg_vectors_find(v, words[row + 1], strlen(words[row + 1]));
+                assert_int_equal(r, row);
+                assert_memory_equal(vg_vectors_row(v, r), matrix + (row + 1) * DIMS,
+                                    DIMS * sizeof(float));
+                vg_vectors_free(v);
+                unlink(path);
+                if (l == 1) {
+                    char vp[4200];
+                    snprintf(vp, sizeof vp, "%.*s.vocab", (int)(strlen(path) - (gz ? 7 : 4)),
+                             path);
+                    unlink(vp);
+                }
+            }
+        }
+    }
+}
+
+/* vocab-1: a vocabulary long enough to grow its word lists many times
+ * (a gzip vocabulary has no size to reserve from), and the same plain
+ * (reserved once from the file's size), give the same set, every word on
+ * its row; max_words stops both at the same row. */
+static void test_vocab_lists(void **state) {
+    (void)state;
+    char path[4096], vp[4200], gzp[4300];
+    snprintf(path, sizeof path, "%s", temp_path("vl.npy"));
+    write_set(path, W_NPY, 0, ROWS);
+    snprintf(vp, sizeof vp, "%.*s.vocab", (int)(strlen(path) - 4), path);
+    vg_vectors *plain = load_threads(path, 2);
+    expect_exact(plain, ROWS);
+    snprintf(gzp, sizeof gzp, "%s.gz", vp);
+    FILE *in = fopen(vp, "rb");
+    gzFile g = gzopen(gzp, "wb1");
+    assert_non_null(in);
+    assert_non_null(g);
+    char buf[65536];
+    size_t n;
+    while ((n = fread(buf, 1, sizeof buf, in)) > 0)
+        assert_int_equal(gzwrite(g, buf, (unsigned)n), n);
+    fclose(in);
+    assert_int_equal(gzclose(g), Z_OK);
+    unlink(vp);
+    vg_vectors *zipped = load_threads(path, 2);
+    expect_exact(zipped, ROWS);
+    for (size_t i = 0; i < ROWS; i++) {
+        size_t la, lb;
+        assert_string_equal(vg_vectors_word(zipped, i, &la), vg_vectors_word(plain, i, &lb));
+    }
+    vg_vectors_free(zipped);
+    vg_vectors_free(plain);
+    vg_load_options opt;
+    vg_load_options_init(&opt);
+    opt.max_words = 9001;
+    vg_vectors *v = NULL;
+    vg_error err;
+    assert_vg_ok(vg_vectors_load(path, &opt, &v, &err), &err);
+    assert_int_equal(vg_vectors_rows(v), 9001);
+    size_t len;
+    assert_string_equal(vg_vectors_word(v, 9000, &len), words[9000]);
+    vg_vectors_free(v);
+    unlink(gzp);
+    unlink(path);
+}
+
 /* pipe-1: a FIFO (size unknown: the matrix grows as rows arrive, while
  * the threads parse in place), plain text and gzip binary, equal to the
  * written matrix; the reservation is made tiny to force many growths. */
@@ -456,6 +605,9 @@ int main(void) {
         cmocka_unit_test(test_errors_deep),
         cmocka_unit_test(test_filter_and_max),
         cmocka_unit_test(test_norms),
+        cmocka_unit_test(test_norm_finite),
+        cmocka_unit_test(test_nonfinite_files),
+        cmocka_unit_test(test_vocab_lists),
         cmocka_unit_test(test_pipes),
         cmocka_unit_test(test_partial_hash),
     };
