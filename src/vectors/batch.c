@@ -7,81 +7,129 @@
  * into their final place (and share the first touch of the matrix's
  * pages), check them and compute the norms; then, in file order, the
  * rows are added to the builder, a bad row is skipped or reported, and a
- * row moves down only when an earlier one was dropped. The builder's
- * index lookups, the one part that must be sequential, are prefetched a
- * few rows ahead.
+ * row moves down only when an earlier one was dropped.
+ *
+ * Adding rows is the one part that must be sequential (the word index
+ * decides duplicates in file order), and on a 2M-row file it took as long
+ * as converting them on two threads. So the two overlap: while the
+ * calling thread adds the previous batch, the other threads convert this
+ * one, in chunks claimed from a counter, and the calling thread joins
+ * them when it is done. Which thread converts a row never changes what is
+ * stored, and rows are still added strictly in file order, so results do
+ * not depend on the thread count or on timing. The index lookups are
+ * prefetched a few rows ahead.
  */
 #include <math.h>
+#include <sched.h>
+#include <stdatomic.h>
 #include <string.h>
 
+#include "../common/alloc.h"
 #include "../common/threads.h"
 #include "vectors_impl.h"
 
 /* Rows ahead whose index slot is prefetched. */
 #define PREFETCH_AHEAD 8
+/* A batch is converted in at most this many chunks (of at least
+ * CHUNK_MIN_ROWS rows): enough for the threads to even out, few enough
+ * that claiming one costs nothing beside converting it. */
+#define MAX_CHUNKS 64
+#define CHUNK_MIN_ROWS 32
 
-static void convert_share(void *ctx, unsigned t, unsigned nt) {
-    vg_batch *b = ctx;
+/* One vg_batch_run: this batch's conversion, shared out by chunks, and
+ * the previous batch's rows, added by thread 0. */
+typedef struct stage {
+    vg_batch *b;
+    vg_batch_row *rows; /* this batch */
+    size_t n, chunk, nchunks;
+    atomic_size_t next; /* chunks claimed */
+    atomic_size_t done; /* chunks converted */
+    /* The lowest chunk whose fill failed, and its error. */
+    pthread_mutex_t lock;
+    size_t fail_chunk;
+    vg_status fail_st;
+    vg_error fail_err;
+    /* Thread 0's adding of the previous batch. */
+    vg_status add_st;
+    vg_error *add_err;
+} stage;
+
+static void convert_chunk(stage *s, size_t c) {
+    const vg_batch *b = s->b;
     vg_vectors *v = b->v;
-    size_t lo = b->n * t / nt, hi = b->n * (t + 1) / nt;
-    b->fill_st[t] = VG_OK;
-    if (b->fill && hi > lo) {
-        const vg_batch_row *r = &b->rows[lo];
-        b->fill_st[t] = b->fill(b->fill_ctx, r->file_row, hi - lo, v->data + r->file_row * v->ld,
-                                &b->fill_err[t]);
-        if (b->fill_st[t] != VG_OK) {
-            for (size_t i = lo; i < hi; i++) b->rows[i].keyfail = 2;
+    /* What of the set a chunk needs, read once: the adding thread writes
+     * the set's counters beside these fields for every row, and reading
+     * them per row would pull that cache line back and forth between
+     * the threads (measured: twice the CPU time of both loops). They do
+     * not change while chunks are converted. */
+    float *data = v->data;
+    size_t ld = v->ld, dims = v->dims;
+    size_t lo = c * s->chunk, hi = VG_MIN(lo + s->chunk, s->n);
+    vg_batch_row *rows = s->rows;
+    if (b->fill) {
+        vg_error e;
+        vg_status st = b->fill(b->fill_ctx, rows[lo].file_row, hi - lo,
+                               data + rows[lo].file_row * ld, &e);
+        if (st != VG_OK) {
+            for (size_t i = lo; i < hi; i++) rows[i].keyfail = 2;
+            pthread_mutex_lock(&s->lock);
+            if (c < s->fail_chunk) {
+                s->fail_chunk = c;
+                s->fail_st = st;
+                s->fail_err = e;
+            }
+            pthread_mutex_unlock(&s->lock);
             return;
         }
     }
-    /* Each thread maps in its own share of a borrowed matrix's pages. */
-    if (b->in_matrix && hi > lo) vg_vecbuild_populate(v, b->rows[lo].file_row, hi - lo);
+    /* Each chunk maps in its own part of a borrowed matrix's pages. */
+    if (b->in_matrix) vg_vecbuild_populate(v, rows[lo].file_row, hi - lo);
+    vg_convert_fn conv = b->fill ? NULL : b->conv;
     for (size_t i = lo; i < hi; i++) {
-        vg_batch_row *r = &b->rows[i];
-        float *dst = v->data + r->file_row * v->ld;
-        if (b->conv && !b->fill) b->conv(dst, r->src, v->dims, b->conv_ctx);
+        vg_batch_row *r = &rows[i];
+        float *dst = data + r->file_row * ld;
+        if (conv) conv(dst, r->src, dims, b->conv_ctx);
         r->norm = 0;
-        r->bad = !vg_row_norm_finite(dst, v->dims, &r->norm);
-        r->keyfail = vg_rowkey_make(v, r->word, r->wlen, &r->key) != 0;
+        r->bad = !vg_row_norm_finite(dst, dims, &r->norm);
+        r->keyfail = vg_rowkey_make_unfiltered(r->word, r->wlen, &r->key) != 0;
     }
 }
 
-vg_status vg_batch_run(vg_batch *b, vg_error *err) {
+/* Claim and convert chunks until none is left. */
+static void convert_some(stage *s) {
+    for (;;) {
+        size_t c = atomic_fetch_add(&s->next, 1);
+        if (c >= s->nchunks) return;
+        convert_chunk(s, c);
+        atomic_fetch_add(&s->done, 1);
+    }
+}
+
+/* Every chunk converted: this thread takes what is unclaimed, then waits
+ * for the chunks other threads are still on (they are running, since
+ * only a running thread claims). Needed before the matrix moves. */
+static void settle(stage *s) {
+    if (!s) return;
+    convert_some(s);
+    while (atomic_load(&s->done) < s->nchunks) sched_yield();
+}
+
+static void clear_keys(vg_batch_row *rows, size_t n) {
+    for (size_t i = 0; i < n; i++)
+        if (rows[i].keyfail == 0) vg_rowkey_clear(&rows[i].key);
+}
+
+/* Add rows[0..n), converted, to the builder in file order. s is the
+ * conversion running meanwhile (or NULL): it is finished first when the
+ * matrix must move. */
+static vg_status add_rows(vg_batch *b, vg_batch_row *rows, size_t n, stage *s, vg_error *err) {
     vg_vectors *v = b->v;
     vg_status st = VG_OK;
-    if (b->n == 0) return VG_OK;
-    /* Rows go to their file position: make room (nothing else runs). */
-    size_t need = (size_t)b->rows[b->n - 1].file_row + 1;
-    /* Growing may move the matrix, whose rows may still be queued for
-     * hashing. */
-    if (need > v->cap_rows && b->hash_src) vg_src_hash_wait_upto(b->hash_src, vg_src_hash_submitted(b->hash_src));
-    if (vg_vecbuild_reserve(v, need) != 0) {
-        b->n = 0;
-        return vg_error_set(err, VG_ENOMEM, b->path, 0, "out of memory for the matrix");
-    }
-    unsigned nt = b->n < 64 ? 1 : VG_MIN(b->threads, (unsigned)VG_BATCH_SHARES);
-    vg_parallel(nt, convert_share, b);
-    for (unsigned t = 0; t < nt; t++) {
-        if (b->fill_st[t] != VG_OK) {
-            /* Nothing was added yet: fail before the first row. */
-            *err = b->fill_err[t];
-            st = b->fill_st[t];
-            for (size_t i = 0; i < b->n; i++)
-                if (b->rows[i].keyfail == 0) vg_rowkey_clear(&b->rows[i].key);
-            b->n = 0;
-            return st;
-        }
-    }
-    /* The rows as read are the stored bytes: hash them before any row
-     * moves. */
-    if (b->hash_src && b->fill)
-        vg_src_hash_submit(b->hash_src, v->data + b->rows[0].file_row * v->ld,
-                           b->n * v->dims * sizeof(float));
     int waited = 0;
-    for (size_t i = 0; i < b->n && st == VG_OK; i++) {
-        if (i + PREFETCH_AHEAD < b->n && !b->rows[i + PREFETCH_AHEAD].keyfail)
-            vg_strmap_prefetch(&v->index, b->rows[i + PREFETCH_AHEAD].key.hash);
-        vg_batch_row *r = &b->rows[i];
+    for (size_t i = 0; i < n && st == VG_OK; i++) {
+        if (i + PREFETCH_AHEAD < n && !rows[i + PREFETCH_AHEAD].keyfail)
+            vg_strmap_prefetch(&v->index, rows[i + PREFETCH_AHEAD].key.hash);
+        vg_batch_row *r = &rows[i];
         if (r->keyfail) {
             st = vg_error_set(err, VG_ENOMEM, b->path, 0, "out of memory");
             break;
@@ -107,8 +155,10 @@ vg_status vg_batch_run(vg_batch *b, vg_error *err) {
             const float *src = v->data + r->file_row * v->ld;
             if (dst != src && v->borrow_map) {
                 /* A dropped row before this one: rows must move, which
-                 * the file's read-only bytes cannot; take a copy. */
+                 * the file's read-only bytes cannot; take a copy, once
+                 * no thread reads the borrowed rows any more. */
                 size_t at = (size_t)(dst - v->data);
+                settle(s);
                 if (vg_vecbuild_own(v) != 0) {
                     st = vg_error_set(err, VG_ENOMEM, b->path, 0, "out of memory for the matrix");
                     break;
@@ -125,8 +175,101 @@ vg_status vg_batch_run(vg_batch *b, vg_error *err) {
             }
         }
     }
-    for (size_t i = 0; i < b->n; i++)
-        if (!b->rows[i].keyfail) vg_rowkey_clear(&b->rows[i].key);
-    b->n = 0;
+    clear_keys(rows, n);
     return st;
+}
+
+static void stage_run(void *ctx, unsigned t, unsigned nt) {
+    (void)nt;
+    stage *s = ctx;
+    vg_batch *b = s->b;
+    if (t == 0 && b->prev_n) {
+        s->add_st = add_rows(b, b->prev, b->prev_n, s, s->add_err);
+        b->prev_n = 0;
+    }
+    convert_some(s);
+}
+
+size_t vg_batch_test_cap;
+
+int vg_batch_alloc(vg_batch *b, size_t cap) {
+    if (vg_batch_test_cap && cap > vg_batch_test_cap) cap = vg_batch_test_cap;
+    b->cap = cap;
+    b->n = b->prev_n = 0;
+    b->rows = vg_calloc(cap, sizeof *b->rows);
+    b->prev = vg_calloc(cap, sizeof *b->prev);
+    if (b->rows && b->prev) return 0;
+    vg_free(b->rows);
+    vg_free(b->prev);
+    b->rows = b->prev = NULL;
+    return -1;
+}
+
+void vg_batch_free(vg_batch *b) {
+    if (b->prev) clear_keys(b->prev, b->prev_n);
+    vg_free(b->rows);
+    vg_free(b->prev);
+    b->rows = b->prev = NULL;
+    b->n = b->prev_n = 0;
+}
+
+vg_status vg_batch_flush(vg_batch *b, vg_error *err) {
+    if (!b->prev_n) return VG_OK;
+    vg_status st = add_rows(b, b->prev, b->prev_n, NULL, err);
+    b->prev_n = 0;
+    return st;
+}
+
+vg_status vg_batch_run(vg_batch *b, vg_error *err) {
+    vg_vectors *v = b->v;
+    if (b->n == 0) return vg_batch_flush(b, err);
+    /* Rows go to their file position: make room while nothing else
+     * runs. Growing may move the matrix, whose rows may still be queued
+     * for hashing; the previous batch's rows move with it. */
+    size_t need = (size_t)b->rows[b->n - 1].file_row + 1;
+    if (need > v->cap_rows && b->hash_src)
+        vg_src_hash_wait_upto(b->hash_src, vg_src_hash_submitted(b->hash_src));
+    if (need > v->cap_rows && vg_vecbuild_reserve(v, need) != 0) {
+        b->n = 0;
+        return vg_error_set(err, VG_ENOMEM, b->path, 0, "out of memory for the matrix");
+    }
+    stage s;
+    memset(&s, 0, sizeof s);
+    s.b = b;
+    s.rows = b->rows;
+    s.n = b->n;
+    s.chunk = VG_MAX((size_t)CHUNK_MIN_ROWS, (s.n + MAX_CHUNKS - 1) / MAX_CHUNKS);
+    s.nchunks = (s.n + s.chunk - 1) / s.chunk;
+    atomic_init(&s.next, 0);
+    atomic_init(&s.done, 0);
+    pthread_mutex_init(&s.lock, NULL);
+    s.fail_chunk = SIZE_MAX;
+    s.add_st = VG_OK;
+    s.add_err = err;
+    unsigned nt = VG_MIN(b->threads, (unsigned)(s.nchunks + (b->prev_n ? 1 : 0)));
+    vg_parallel(nt ? nt : 1, stage_run, &s);
+    pthread_mutex_destroy(&s.lock);
+    /* The previous batch's rows come first in the file, so its error
+     * does too. */
+    vg_status st = s.add_st;
+    if (st == VG_OK && s.fail_chunk != SIZE_MAX) {
+        *err = s.fail_err;
+        st = s.fail_st;
+    }
+    if (st != VG_OK) {
+        clear_keys(b->rows, b->n);
+        b->n = 0;
+        return st;
+    }
+    /* The rows as read are the stored bytes: hash them before any row
+     * moves (which is only when they are added, in the next run). */
+    if (b->hash_src && b->fill)
+        vg_src_hash_submit(b->hash_src, v->data + b->rows[0].file_row * v->ld,
+                           b->n * v->dims * sizeof(float));
+    vg_batch_row *t = b->prev;
+    b->prev = b->rows;
+    b->prev_n = b->n;
+    b->rows = t;
+    b->n = 0;
+    return VG_OK;
 }

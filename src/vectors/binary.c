@@ -70,15 +70,16 @@ static vg_status read_mapped(vg_src *src, size_t size, const vg_detect *d,
     /* A row takes at least rb + 2 bytes (a word, a space, the values), so
      * a batch holds no more rows than that divides into its bytes or into
      * the whole file (a small file must not cost a batch-sized table). */
-    b.cap = VG_MIN(BATCH_BYTES, size) / (rb + 2) + 1;
-    b.rows = vg_calloc(b.cap, sizeof *b.rows);
-    /* Two windows: the hashing thread hashes one while the next fills. */
+    int rows_ok = vg_batch_alloc(&b, VG_MIN(BATCH_BYTES, size) / (rb + 2) + 1) == 0;
+    /* Two windows: the hashing thread hashes one while the next fills,
+     * and a batch's rows (its words are in its window) are added while
+     * the next batch is converted from the other. */
     char *wins[2] = {vg_bigbuf_alloc(wcap + VG_SRC_PAD), vg_bigbuf_alloc(wcap + VG_SRC_PAD)};
     uint64_t wend[2] = {0, 0};
     int wx = 1;
     char *win = wins[0];
-    if (!b.rows || !wins[0] || !wins[1]) {
-        vg_free(b.rows);
+    if (!rows_ok || !wins[0] || !wins[1]) {
+        vg_batch_free(&b);
         vg_bigbuf_release(wins[0], wcap + VG_SRC_PAD);
         vg_bigbuf_release(wins[1], wcap + VG_SRC_PAD);
         return vg_error_set(err, VG_ENOMEM, path, 0, "out of memory");
@@ -158,13 +159,14 @@ static vg_status read_mapped(vg_src *src, size_t size, const vg_detect *d,
         vg_src_hash_submit(src, win, pos - wpos);
         st = vg_batch_run(&b, err);
     }
+    if (st == VG_OK) st = vg_batch_flush(&b, err);
     /* The windows go: the hash must be done with them. */
     vg_src_hash_wait_upto(src, vg_src_hash_submitted(src));
     if (st == VG_OK && late_st != VG_OK) {
         *err = late;
         st = late_st;
     }
-    vg_free(b.rows);
+    vg_batch_free(&b);
     vg_bigbuf_release(wins[0], wcap + VG_SRC_PAD);
     vg_bigbuf_release(wins[1], wcap + VG_SRC_PAD);
     *row = n;

@@ -281,9 +281,8 @@ static vg_status read_c_mapped(vg_src *src, const char *data, const vg_npy_heade
     b.conv_note = " (or beyond float32's range)";
     b.threads = vg_threads_resolve(opt->threads);
     /* 8 MB of rows a batch, and never more rows than the file has. */
-    b.cap = VG_MIN(((size_t)8 << 20) / rb, rows) + 1;
-    b.rows = vg_calloc(b.cap, sizeof *b.rows);
-    if (!b.rows) return vg_error_set(err, VG_ENOMEM, path, 0, "out of memory");
+    if (vg_batch_alloc(&b, VG_MIN(((size_t)8 << 20) / rb, rows) + 1) != 0)
+        return vg_error_set(err, VG_ENOMEM, path, 0, "out of memory");
     vg_status st = vg_src_start(src, 0, 0, err);
     if (in_place) vg_src_hash_submit(src, data - h->data_offset, h->data_offset); /* the header */
     for (size_t i = 0; i < rows && st == VG_OK; i++) {
@@ -298,8 +297,9 @@ static vg_status read_c_mapped(vg_src *src, const char *data, const vg_npy_heade
             if (st == VG_OK) st = vg_src_advance(src, h->data_offset + (uint64_t)(i + 1) * rb, err);
         }
     }
+    if (st == VG_OK) st = vg_batch_flush(&b, err);
     if (in_place) vg_src_hash_wait_upto(src, vg_src_hash_submitted(src));
-    vg_free(b.rows);
+    vg_batch_free(&b);
     return st;
 }
 

@@ -330,7 +330,7 @@ static int keep_has_folded(const vg_vectors *v, const char *word, size_t len) {
     return hit;
 }
 
-int vg_rowkey_make(const vg_vectors *v, const char *word, size_t len, vg_rowkey *k) {
+int vg_rowkey_make_unfiltered(const char *word, size_t len, vg_rowkey *k) {
     k->word = word;
     k->len = len;
     k->owned = NULL;
@@ -351,6 +351,11 @@ int vg_rowkey_make(const vg_vectors *v, const char *word, size_t len, vg_rowkey 
         }
     }
     k->hash = vg_hash_bytes(k->key, k->klen);
+    return 0;
+}
+
+int vg_rowkey_make(const vg_vectors *v, const char *word, size_t len, vg_rowkey *k) {
+    if (vg_rowkey_make_unfiltered(word, len, k) != 0) return -1;
     if (v->keep_active) {
         k->wanted = vg_strmap_get_hashed(&v->keep, k->key, k->klen, k->hash) != (size_t)-1;
         if (!k->wanted && v->keep_fold) {

@@ -90,6 +90,9 @@ VG_INTERNAL vg_status vg_vecbuild_begin(size_t dims, size_t rows_hint, size_t ro
  * nothing calls vg_vecbuild_add. Returns 0, or -1 when out of memory.
  * Free with vg_rowkey_clear. */
 VG_INTERNAL int vg_rowkey_make(const vg_vectors *v, const char *word, size_t len, vg_rowkey *k);
+/* The same for a set with no row filter: reads nothing of the set, so it
+ * may run while vg_vecbuild_add does (batch.c overlaps the two). */
+VG_INTERNAL int vg_rowkey_make_unfiltered(const char *word, size_t len, vg_rowkey *k);
 VG_INTERNAL void vg_rowkey_clear(vg_rowkey *k);
 
 /* Offer the next row of the file, in file order. On VG_OK *dst is where
@@ -193,36 +196,47 @@ typedef struct vg_batch_row {
     unsigned char bad, keyfail;
 } vg_batch_row;
 
-/* Most threads one batch is split between. */
-#define VG_BATCH_SHARES 16
-
 typedef struct vg_batch {
     vg_vectors *v;          /* no row filter */
     const char *path;
     const vg_load_options *opt;
     vg_convert_fn conv;     /* NULL: the values are in place already */
-    /* Or: put rows [first, first + n) of the file in place (each thread
-     * its share, before checking them); 0 or an error code (fill_err). */
+    /* Or: put rows [first, first + n) of the file in place (any thread,
+     * any run of rows, before checking them); 0 or an error code. */
     vg_status (*fill)(void *ctx, uint64_t first, size_t n, float *dst, vg_error *err);
     void *fill_ctx;
     vg_src *hash_src;       /* fill mode: submit the rows read for hashing */
     int in_matrix;          /* the stored rows are in the matrix already (a
                                borrowed file mapping, never hashed): no fill,
                                no conv */
-    vg_status fill_st[VG_BATCH_SHARES]; /* per thread share */
-    vg_error fill_err[VG_BATCH_SHARES];
     const void *conv_ctx;
     const char *where;      /* text before "word" in messages, or NULL */
     const char *conv_note;  /* text after "not finite", or NULL */
     unsigned threads;
-    vg_batch_row *rows;
+    vg_batch_row *rows;     /* the batch being gathered: rows[0..n) */
     size_t n, cap;
+    vg_batch_row *prev;     /* the batch converted last, not yet added */
+    size_t prev_n;
 } vg_batch;
 
-/* Convert, check and key the batch's rows on all threads, straight into
- * matrix row file_row; then add them in order (a bad row skipped and
- * counted, or reported). Empties the batch. */
+/* Room for batches of cap rows (the two arrays rows and prev); the other
+ * fields are the caller's. -1 when out of memory. */
+VG_INTERNAL int vg_batch_alloc(vg_batch *b, size_t cap);
+/* Tests set this to make batches of at most that many rows. */
+VG_INTERNAL extern size_t vg_batch_test_cap;
+
+/* Convert, check and key rows[0..n) on all threads, straight into matrix
+ * row file_row, while the calling thread adds the previous batch's rows
+ * in order (a bad row skipped and counted, or reported). This batch's
+ * rows are added by the next run or by vg_batch_flush: until then their
+ * words and stored bytes must stay where they are. Empties rows. */
 VG_INTERNAL vg_status vg_batch_run(vg_batch *b, vg_error *err);
+
+/* Add the rows the last run converted; every row is then added. */
+VG_INTERNAL vg_status vg_batch_flush(vg_batch *b, vg_error *err);
+
+/* Free the arrays (and the keys of rows never added). */
+VG_INTERNAL void vg_batch_free(vg_batch *b);
 
 /* ---- the readers ------------------------------------------------------ */
 

@@ -554,6 +554,82 @@ static void test_vocab_lists(void **state) {
     unlink(path);
 }
 
+/* batch-1: rows of binary and npy files are converted a batch ahead of
+ * being added. With batches of 1, 7 and 100 rows (many batches) and the
+ * default, on 1, 2 and 4 threads, plain and hashed: a NaN row and a
+ * duplicate word in different batches are dropped (the duplicate after
+ * the borrowed npy matrix had to be copied mid-file), every later row
+ * moves down intact with its own norm, and every run gives the same
+ * matrix, norms, counts and hash. The expected rows are the written ones
+ * with the two dropped (the rule: first occurrence wins, bad rows are
+ * skipped; common practice). */
+static void test_batch_pipeline(void **state) {
+    (void)state;
+    const size_t rows = 3000, bad = 1234, dup = 2000, dup_of = 10;
+    char keepw[24];
+    memcpy(keepw, words[dup], sizeof keepw);
+    memcpy(words[dup], words[dup_of], sizeof keepw);
+    float keepv = matrix[bad * DIMS + 5];
+    matrix[bad * DIMS + 5] = NAN;
+    char paths[2][4096];
+    snprintf(paths[0], sizeof paths[0], "%s", temp_path("bp.bin"));
+    snprintf(paths[1], sizeof paths[1], "%s", temp_path("bp.npy"));
+    write_set(paths[0], W_BINARY, 0, rows);
+    write_set(paths[1], W_NPY, 0, rows);
+    matrix[bad * DIMS + 5] = keepv;
+    static const size_t caps[] = {0, 1, 7, 100};
+    static const unsigned threads[] = {1, 2, 4};
+    for (size_t l = 0; l < 2; l++) {
+        for (int hash = 0; hash < 2; hash++) {
+            vg_vectors *first = NULL;
+            for (size_t c = 0; c < 4; c++) {
+                for (size_t t = 0; t < 3; t++) {
+                    vg_batch_test_cap = caps[c];
+                    vg_load_options opt;
+                    vg_load_options_init(&opt);
+                    opt.threads = threads[t];
+                    opt.skip_bad_rows = 1;
+                    opt.compute_hash = hash;
+                    vg_vectors *v = NULL;
+                    vg_error err;
+                    assert_vg_ok(vg_vectors_load(paths[l], &opt, &v, &err), &err);
+                    vg_batch_test_cap = 0;
+                    const vg_vectors_info *in = vg_vectors_get_info(v);
+                    assert_int_equal(vg_vectors_rows(v), rows - 2);
+                    assert_int_equal(in->bad_rows, 1);
+                    assert_int_equal(in->duplicates, 1);
+                    for (size_t i = 0, r = 0; i < rows; i++) {
+                        if (i == bad || i == dup) continue;
+                        size_t len;
+                        assert_string_equal(vg_vectors_word(v, r, &len), words[i]);
+                        assert_memory_equal(vg_vectors_row(v, r), matrix + i * DIMS,
+                                            DIMS * sizeof(float));
+                        float want = vg_row_norm(matrix + i * DIMS, DIMS);
+                        assert_memory_equal(&vg_vectors_norms(v)[r], &want, sizeof want);
+                        r++;
+                    }
+                    assert_int_equal(vg_vectors_find(v, words[dup_of], strlen(words[dup_of])),
+                                     dup_of);
+                    if (!first) {
+                        first = v;
+                        continue;
+                    }
+                    assert_string_equal(in->sha256, vg_vectors_get_info(first)->sha256);
+                    vg_vectors_free(v);
+                }
+            }
+            if (hash) assert_int_equal(strlen(vg_vectors_get_info(first)->sha256), 64);
+            vg_vectors_free(first);
+        }
+    }
+    memcpy(words[dup], keepw, sizeof keepw);
+    unlink(paths[0]);
+    unlink(paths[1]);
+    char vp[4200];
+    snprintf(vp, sizeof vp, "%.*s.vocab", (int)(strlen(paths[1]) - 4), paths[1]);
+    unlink(vp);
+}
+
 /* pipe-1: a FIFO (size unknown: the matrix grows as rows arrive, while
  * the threads parse in place), plain text and gzip binary, equal to the
  * written matrix; the reservation is made tiny to force many growths. */
@@ -608,6 +684,7 @@ int main(void) {
         cmocka_unit_test(test_norm_finite),
         cmocka_unit_test(test_nonfinite_files),
         cmocka_unit_test(test_vocab_lists),
+        cmocka_unit_test(test_batch_pipeline),
         cmocka_unit_test(test_pipes),
         cmocka_unit_test(test_partial_hash),
     };
