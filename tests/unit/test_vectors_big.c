@@ -456,9 +456,10 @@ static void test_norm_finite(void **state) {
 }
 
 /* finite-2: a NaN or an infinity in a binary or npy row, plain (rows
- * checked in place on all threads) or gzip (row by row), at the first, a
- * middle and the last value: an error naming the row and the value;
- * skip_bad_rows drops exactly that row and the next moves down intact. */
+ * checked in place on all threads, in one batch and in batches of 7
+ * rows) or gzip (row by row), at the first, a middle and the last value:
+ * an error naming the row and the value; skip_bad_rows drops exactly
+ * that row and the next moves down intact. */
 static void test_nonfinite_files(void **state) {
     (void)state;
     static const char *names[2][2] = {{"nf.bin", "nf.bin.gz"}, {"nf.npy", "nf.npy.gz"}};
@@ -478,6 +479,7 @@ static void test_nonfinite_files(void **state) {
                 opt.threads = 2;
                 vg_vectors *v = (vg_vectors *)1;
                 vg_error err;
+                vg_batch_test_cap = c == 2 ? 7 : 0;
                 assert_int_equal(vg_vectors_load(path, &opt, &v, &err), VG_EVALUE);
                 assert_null(v);
                 char want[64];
@@ -495,6 +497,7 @@ static void test_nonfinite_files(void **state) {
                 assert_int_equal(r, row);
                 assert_memory_equal(vg_vectors_row(v, r), matrix + (row + 1) * DIMS,
                                     DIMS * sizeof(float));
+                vg_batch_test_cap = 0;
                 vg_vectors_free(v);
                 unlink(path);
                 if (l == 1) {
