@@ -19,12 +19,12 @@
 # cat's (zcat's for gzip) on the same file. A "(first write of fresh
 # memory)" row per size times the first write of the matrix's bytes into
 # new memory: any layout copied into the matrix cannot load faster.
-# Binary and npy are then timed again with the file brought into the page
-# cache by vecgauge's own first read (dropped from the cache first with
-# dd iflag=nocache): that read goes through a mapping advised for huge
-# pages, so the cache holds the file in 2 MiB folios, which map with one
-# entry each; after cat the cache holds 4 KiB ones. The first read itself,
-# from disk, gets a row of its own.
+# Text, binary and npy are then timed again with the file brought into
+# the page cache by vecgauge's own first read (dropped from the cache
+# first with dd iflag=nocache): that read goes through a mapping advised
+# for huge pages, so the cache holds the file in 2 MiB folios, which map
+# with one entry each; a file just written is held in small ones. The
+# first read itself, from disk, gets a row of its own.
 set -euo pipefail
 cd "$(dirname "$0")/../.."
 build=${VG_BUILD:-build}
@@ -137,11 +137,13 @@ for size in $sizes; do
                     set, b / 1e9, m, lo, hi, b / m / 1e9, la }'
         fi
         timed_rows "$lay"
-        if [ "$lay" = binary ] || [ "$lay" = npy ]; then
+        if [ "$lay" != gzip ]; then
             # The same file brought into the page cache by vecgauge's own
             # first read, through a mapping advised for huge pages: the
             # cache then holds it in 2 MiB folios, which map with one entry
-            # each (cat's reads leave 4 KiB ones). That first read, from
+            # each (a file just written, and cat's reads of it, are in
+            # small ones), and text is then parsed straight from the
+            # mapping instead of read() into buffers. That first read, from
             # disk, is timed too.
             dd if="$f" iflag=nocache count=0 status=none   # out of the page cache
             : > "$dir/runs"

@@ -4,7 +4,10 @@
 #include "filemap.h"
 
 #include <errno.h>
+#include <inttypes.h>
 #include <stdint.h>
+#include <stdio.h>
+#include <string.h>
 #include <sys/mman.h>
 #include <unistd.h>
 
@@ -47,4 +50,41 @@ void *vg_filemap(int fd, size_t size, size_t pad, size_t *span) {
 #endif
     *span = total;
     return a;
+}
+
+/* FilePmdMapped of the mapping that starts at base: 1 above zero, 0 zero,
+ * -1 when not found. The records come in address order, a header line
+ * "start-end perms ..." and then "Field: value kB" lines; the kernel walks
+ * a mapping's pages only when its record is read, so stop at ours. */
+static int pmd_mapped(const void *base) {
+    FILE *f = fopen("/proc/self/smaps", "re");
+    if (!f) return -1;
+    char line[512];
+    int in_vma = 0, rc = -1;
+    while (fgets(line, sizeof line, f)) {
+        uintmax_t lo, hi, kb;
+        char dash;
+        if (sscanf(line, "%jx%c%jx ", &lo, &dash, &hi) == 3 && dash == '-') {
+            if (in_vma) break;
+            in_vma = lo == (uintmax_t)(uintptr_t)base;
+        } else if (in_vma && sscanf(line, "FilePmdMapped: %ju kB", &kb) == 1) {
+            rc = kb > 0;
+            break;
+        }
+    }
+    fclose(f);
+    return rc;
+}
+
+int vg_filemap_cached_huge(const void *base, size_t size) {
+#if defined(MADV_POPULATE_READ) && defined(MADV_HUGEPAGE)
+    if (!base || size < 3 * VG_FILEMAP_ALIGN) return -1;
+    size_t mid = (size / 2) & ~(VG_FILEMAP_ALIGN - 1);
+    if (madvise((char *)(uintptr_t)base + mid, VG_FILEMAP_ALIGN, MADV_POPULATE_READ) != 0) return -1;
+    return pmd_mapped(base);
+#else
+    (void)base;
+    (void)size;
+    return -1;
+#endif
 }

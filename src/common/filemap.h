@@ -27,4 +27,17 @@
  * failure; nothing stays mapped then. */
 VG_INTERNAL void *vg_filemap(int fd, size_t size, size_t pad, size_t *span);
 
+/* Whether the page cache holds the file mapped at base (size bytes, by
+ * vg_filemap) in 2 MiB folios, judged by one 2 MiB block from its middle:
+ * the block is brought in through the mapping (read from disk if need
+ * be: readahead through this mapping then fills 2 MiB folios), and the
+ * kernel's FilePmdMapped figure for the mapping in /proc/self/smaps says
+ * whether it went in through a 2 MiB entry. The middle, because `cat`
+ * and other readers cache a file's first few hundred KiB in small folios
+ * (readahead starts small) and the rest in large ones. Returns 1 yes,
+ * 0 no, -1 when it cannot be told (a file under three blocks, no /proc,
+ * a kernel without the figure). Walking a mapping of small folios costs a
+ * fault per few pages, where read() into a buffer does not. */
+VG_INTERNAL int vg_filemap_cached_huge(const void *base, size_t size);
+
 #endif /* VG_FILEMAP_H */

@@ -103,6 +103,13 @@ VG_INTERNAL void vg_src_close(vg_src *s);
  * 16 MiB; tests set it low to run that path on small files). */
 VG_INTERNAL extern size_t vg_src_hash_thread_min;
 
+/* How the lines of a regular text file are read. VG_SRC_TEXT_AUTO (the
+ * default): the parsers walk the file's mapping where the page cache
+ * holds the file in 2 MiB folios (vg_filemap_cached_huge), and a producer
+ * thread read()s it into buffers otherwise. Tests force either way. */
+enum { VG_SRC_TEXT_AUTO, VG_SRC_TEXT_MAP, VG_SRC_TEXT_READ };
+VG_INTERNAL extern int vg_src_text_mode;
+
 /* ---- sequential reading across chunks (binary, npy, vocabularies) ---- */
 
 typedef struct vg_seq {
