@@ -4,7 +4,6 @@
 #include "filemap.h"
 
 #include <errno.h>
-#include <inttypes.h>
 #include <stdint.h>
 #include <stdio.h>
 #include <string.h>
