@@ -21,9 +21,10 @@
 # new memory: any layout copied into the matrix cannot load faster.
 # Text, binary and npy are then timed again with the file brought into
 # the page cache by vecgauge's own first read (dropped from the cache
-# first with dd iflag=nocache): that read goes through a mapping advised
-# for huge pages, so the cache holds the file in 2 MiB folios, which map
-# with one entry each; a file just written is held in small ones. The
+# first with dd iflag=nocache): text and npy are read through a mapping
+# advised for huge pages, so the cache holds them in 2 MiB folios, which
+# map with one entry each; binary is read with pread(), whose readahead
+# fills large folios too; a file just written is held in small ones. The
 # first read itself, from disk, gets a row of its own.
 set -euo pipefail
 cd "$(dirname "$0")/../.."
@@ -139,12 +140,11 @@ for size in $sizes; do
         timed_rows "$lay"
         if [ "$lay" != gzip ]; then
             # The same file brought into the page cache by vecgauge's own
-            # first read, through a mapping advised for huge pages: the
-            # cache then holds it in 2 MiB folios, which map with one entry
-            # each (a file just written, and cat's reads of it, are in
-            # small ones), and text is then parsed straight from the
-            # mapping instead of read() into buffers. That first read, from
-            # disk, is timed too.
+            # first read: the cache then holds it in large folios (2 MiB
+            # ones for text and npy, read through a mapping advised for
+            # huge pages), where a file just written is in small ones, and
+            # text is then parsed straight from the mapping instead of
+            # read() into buffers. That first read, from disk, is timed too.
             dd if="$f" iflag=nocache count=0 status=none   # out of the page cache
             : > "$dir/runs"
             "$helper" load "$f" --no-hash >> "$dir/runs"
