@@ -17,7 +17,9 @@
  * them when it is done. Which thread converts a row never changes what is
  * stored, and rows are still added strictly in file order, so results do
  * not depend on the thread count or on timing. The index lookups are
- * prefetched a few rows ahead.
+ * prefetched a few rows ahead. A caller reading its input with pread()
+ * can hand a run its next read (vg_batch's ahead_*), done in pieces by
+ * whichever thread finds no chunk left to convert.
  */
 #include <math.h>
 #include <sched.h>
@@ -28,6 +30,9 @@
 #include "../common/threads.h"
 #include "vectors_impl.h"
 
+/* Bytes of a read-ahead piece: enough to amortise a pread(), and a
+ * window in a handful of pieces so that both threads share the read. */
+#define AHEAD_PIECE ((size_t)1 << 20)
 /* Rows ahead whose index slot is prefetched. */
 #define PREFETCH_AHEAD 8
 /* A batch is converted in at most this many chunks (of at least
@@ -42,13 +47,23 @@ typedef struct stage {
     vg_batch *b;
     vg_batch_row *rows; /* this batch */
     size_t n, chunk, nchunks;
-    atomic_size_t next; /* chunks claimed */
+    /* The read ahead (vg_batch's ahead_*), in npieces claimed after the
+     * chunks. */
+    vg_src *ahead_src;
+    char *ahead_dst;
+    size_t ahead_n, npieces;
+    uint64_t ahead_off;
+    atomic_size_t next; /* chunks (then pieces) claimed */
     atomic_size_t done; /* chunks converted */
     /* The lowest chunk whose fill failed, and its error. */
     pthread_mutex_t lock;
     size_t fail_chunk;
     vg_status fail_st;
     vg_error fail_err;
+    /* The lowest read-ahead piece that failed, and its error. */
+    size_t fail_piece;
+    vg_status ahead_st;
+    vg_error ahead_err;
     /* Thread 0's adding of the previous batch. */
     vg_status add_st;
     vg_error *add_err;
@@ -95,11 +110,30 @@ static void convert_chunk(stage *s, size_t c) {
     }
 }
 
-/* Claim and convert chunks until none is left. */
+static void read_piece(stage *s, size_t k) {
+    size_t lo = k * AHEAD_PIECE, n = VG_MIN(AHEAD_PIECE, s->ahead_n - lo);
+    vg_error e;
+    vg_status st = vg_src_pread(s->ahead_src, s->ahead_dst + lo, n, s->ahead_off + lo, &e);
+    if (st == VG_OK) return;
+    pthread_mutex_lock(&s->lock);
+    if (k < s->fail_piece) {
+        s->fail_piece = k;
+        s->ahead_st = st;
+        s->ahead_err = e;
+    }
+    pthread_mutex_unlock(&s->lock);
+}
+
+/* Claim and convert chunks until none is left, then read pieces of the
+ * read ahead (converting first: the matrix may wait on it in settle). */
 static void convert_some(stage *s) {
     for (;;) {
         size_t c = atomic_fetch_add(&s->next, 1);
-        if (c >= s->nchunks) return;
+        if (c >= s->nchunks + s->npieces) return;
+        if (c >= s->nchunks) {
+            read_piece(s, c - s->nchunks);
+            continue;
+        }
         convert_chunk(s, c);
         atomic_fetch_add(&s->done, 1);
     }
@@ -222,7 +256,14 @@ vg_status vg_batch_flush(vg_batch *b, vg_error *err) {
 
 vg_status vg_batch_run(vg_batch *b, vg_error *err) {
     vg_vectors *v = b->v;
-    if (b->n == 0) return vg_batch_flush(b, err);
+    if (b->n == 0) {
+        /* Nothing to convert: the read ahead is done here. */
+        vg_status st = vg_batch_flush(b, err);
+        if (st == VG_OK && b->ahead_src)
+            st = vg_src_pread(b->ahead_src, b->ahead_dst, b->ahead_n, b->ahead_off, err);
+        b->ahead_src = NULL;
+        return st;
+    }
     /* Rows go to their file position: make room while nothing else
      * runs. Growing may move the matrix, whose rows may still be queued
      * for hashing; the previous batch's rows move with it. */
@@ -231,6 +272,7 @@ vg_status vg_batch_run(vg_batch *b, vg_error *err) {
         vg_src_hash_wait_upto(b->hash_src, vg_src_hash_submitted(b->hash_src));
     if (need > v->cap_rows && vg_vecbuild_reserve(v, need) != 0) {
         b->n = 0;
+        b->ahead_src = NULL;
         return vg_error_set(err, VG_ENOMEM, b->path, 0, "out of memory for the matrix");
     }
     stage s;
@@ -244,9 +286,16 @@ vg_status vg_batch_run(vg_batch *b, vg_error *err) {
     atomic_init(&s.done, 0);
     pthread_mutex_init(&s.lock, NULL);
     s.fail_chunk = SIZE_MAX;
+    s.fail_piece = SIZE_MAX;
+    s.ahead_src = b->ahead_src;
+    s.ahead_dst = b->ahead_dst;
+    s.ahead_n = b->ahead_src ? b->ahead_n : 0;
+    s.ahead_off = b->ahead_off;
+    s.npieces = (s.ahead_n + AHEAD_PIECE - 1) / AHEAD_PIECE;
     s.add_st = VG_OK;
     s.add_err = err;
-    unsigned nt = VG_MIN(b->threads, (unsigned)(s.nchunks + (b->prev_n ? 1 : 0)));
+    b->ahead_src = NULL;
+    unsigned nt = VG_MIN(b->threads, (unsigned)(s.nchunks + s.npieces + (b->prev_n ? 1 : 0)));
     vg_parallel(nt ? nt : 1, stage_run, &s);
     pthread_mutex_destroy(&s.lock);
     /* The previous batch's rows come first in the file, so its error
@@ -255,6 +304,10 @@ vg_status vg_batch_run(vg_batch *b, vg_error *err) {
     if (st == VG_OK && s.fail_chunk != SIZE_MAX) {
         *err = s.fail_err;
         st = s.fail_st;
+    }
+    if (st == VG_OK && s.fail_piece != SIZE_MAX) {
+        *err = s.ahead_err;
+        st = s.ahead_st;
     }
     if (st != VG_OK) {
         clear_keys(b->rows, b->n);

@@ -213,6 +213,15 @@ typedef struct vg_batch {
     const char *where;      /* text before "word" in messages, or NULL */
     const char *conv_note;  /* text after "not finite", or NULL */
     unsigned threads;
+    /* Optional, for one run: read ahead_n bytes of ahead_src from
+     * ahead_off into ahead_dst meanwhile, in pieces taken by whichever
+     * thread has no row left to convert (the next window of a layout
+     * read by pread). The run clears it; a read error is the run's,
+     * after any error of its rows. */
+    vg_src *ahead_src;
+    char *ahead_dst;
+    size_t ahead_n;
+    uint64_t ahead_off;
     vg_batch_row *rows;     /* the batch being gathered: rows[0..n) */
     size_t n, cap;
     vg_batch_row *prev;     /* the batch converted last, not yet added */
