@@ -33,6 +33,8 @@
 /* Bytes of a read-ahead piece: enough to amortise a pread(), and a
  * window in a handful of pieces so that both threads share the read. */
 #define AHEAD_PIECE ((size_t)1 << 20)
+/* How far ahead of a borrowed row its bytes are prefetched. */
+#define PREFETCH_BYTES 4096
 /* Rows ahead whose index slot is prefetched. */
 #define PREFETCH_AHEAD 8
 /* A batch is converted in at most this many chunks (of at least
@@ -103,6 +105,17 @@ static void convert_chunk(stage *s, size_t c) {
     for (size_t i = lo; i < hi; i++) {
         vg_batch_row *r = &rows[i];
         float *dst = data + r->file_row * ld;
+        if (b->in_matrix) {
+            /* A borrowed mapping of a file the page cache holds in small
+             * folios: the hardware prefetcher stops at each 4 KiB page,
+             * so the bytes a page ahead are asked for now (2M x 300
+             * .npy, unhashed, just written: medians 0.78 and 0.77 s
+             * against 0.89 and 0.86 s in two sets of 12 and 10 paired
+             * runs; in 2 MiB folios no slower, 2026-12-03).
+             * A prefetch never faults, past the mapping's end either. */
+            const char *q = (const char *)dst + PREFETCH_BYTES;
+            for (size_t o = 0; o < dims * sizeof(float); o += 64) __builtin_prefetch(q + o);
+        }
         if (conv) conv(dst, r->src, dims, b->conv_ctx);
         r->norm = 0;
         r->bad = !vg_row_norm_finite(dst, dims, &r->norm);
