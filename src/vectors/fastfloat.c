@@ -94,8 +94,7 @@ static inline int finish(uint64_t w, int e10, int neg, float *out) {
     memcpy(&bits, &q, sizeof bits);
     uint32_t low = (uint32_t)(bits & 0x1FFFFFFFu);
     if (low - ((1u << 28) - VG_MIDPOINT_MARGIN) <= 2 * VG_MIDPOINT_MARGIN) return 0;
-    float f = (float)q;
-    *out = neg ? -f : f;
+    *out = vg_with_sign((float)q, neg);
     return 1;
 }
 

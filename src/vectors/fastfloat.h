@@ -82,6 +82,20 @@ static inline uint32_t vg_value8(uint64_t x, unsigned k) {
     return (uint32_t)((x * 10000 + (x >> 32)) & 0xFFFFFFFFull);
 }
 
+/* f (not negative) with the sign bit set when neg, as -f is. By bits,
+ * not by a branch: the signs of a vector's values are a coin toss, and a
+ * branch on them was mispredicted about every other value, each time
+ * discarding the division in flight (400k x 300 text, medians of 8
+ * paired runs, 2026-12-03: unhashed 0.71 s to 0.54 s, hashed 1.23 s to
+ * 1.01 s). */
+static inline float vg_with_sign(float f, int neg) {
+    uint32_t b;
+    memcpy(&b, &f, sizeof b);
+    b |= (uint32_t)(neg != 0) << 31;
+    memcpy(&f, &b, sizeof f);
+    return f;
+}
+
 /* w * 10^-k (w < 10^15, k < 8) rounded to float. Below 2^24 by one
  * exact division; above, when the margin test proves the result equal to
  * the correctly rounded one: w is exact in double and 10^-k within half
@@ -93,8 +107,7 @@ static inline int vg_float_round(uint64_t w, unsigned k, int neg, float *out) {
         /* w and 10^k are both exact floats, so one IEEE division, which
          * rounds correctly, gives exactly strtof's float (Clinger's fast
          * path, in single precision; see fastfloat.c). */
-        float f = (float)w / vg_pow10_f32[k];
-        *out = neg ? -f : f;
+        *out = vg_with_sign((float)w / vg_pow10_f32[k], neg);
         return 1;
     }
 #endif
@@ -107,8 +120,7 @@ static inline int vg_float_round(uint64_t w, unsigned k, int neg, float *out) {
         *out = neg ? -0.0f : 0.0f;
         return 1;
     }
-    float f = (float)q;
-    *out = neg ? -f : f;
+    *out = vg_with_sign((float)q, neg);
     return 1;
 }
 
