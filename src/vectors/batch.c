@@ -43,6 +43,14 @@
 #define MAX_CHUNKS 64
 #define CHUNK_MIN_ROWS 32
 
+/* The first failure, in file order, of a kind of work shared out in
+ * numbered parts. */
+typedef struct failure {
+    size_t at; /* the part; SIZE_MAX: none */
+    vg_status st;
+    vg_error err;
+} failure;
+
 /* One vg_batch_run: this batch's conversion, shared out by chunks, and
  * the previous batch's rows, added by thread 0. */
 typedef struct stage {
@@ -57,19 +65,25 @@ typedef struct stage {
     uint64_t ahead_off;
     atomic_size_t next; /* chunks (then pieces) claimed */
     atomic_size_t done; /* chunks converted */
-    /* The lowest chunk whose fill failed, and its error. */
+    /* The lowest chunk whose fill failed and the lowest read-ahead
+     * piece that failed (the first in the file of each), under lock. */
     pthread_mutex_t lock;
-    size_t fail_chunk;
-    vg_status fail_st;
-    vg_error fail_err;
-    /* The lowest read-ahead piece that failed, and its error. */
-    size_t fail_piece;
-    vg_status ahead_st;
-    vg_error ahead_err;
+    failure fill_fail, ahead_fail;
     /* Thread 0's adding of the previous batch. */
     vg_status add_st;
     vg_error *add_err;
 } stage;
+
+/* Part k failed: keep it if it is the first in the file so far. */
+static void keep_failure(stage *s, failure *f, size_t k, vg_status st, const vg_error *e) {
+    pthread_mutex_lock(&s->lock);
+    if (k < f->at) {
+        f->at = k;
+        f->st = st;
+        f->err = *e;
+    }
+    pthread_mutex_unlock(&s->lock);
+}
 
 static void convert_chunk(stage *s, size_t c) {
     const vg_batch *b = s->b;
@@ -89,13 +103,7 @@ static void convert_chunk(stage *s, size_t c) {
                                data + rows[lo].file_row * ld, &e);
         if (st != VG_OK) {
             for (size_t i = lo; i < hi; i++) rows[i].keyfail = 2;
-            pthread_mutex_lock(&s->lock);
-            if (c < s->fail_chunk) {
-                s->fail_chunk = c;
-                s->fail_st = st;
-                s->fail_err = e;
-            }
-            pthread_mutex_unlock(&s->lock);
+            keep_failure(s, &s->fill_fail, c, st, &e);
             return;
         }
     }
@@ -127,14 +135,7 @@ static void read_piece(stage *s, size_t k) {
     size_t lo = k * AHEAD_PIECE, n = VG_MIN(AHEAD_PIECE, s->ahead_n - lo);
     vg_error e;
     vg_status st = vg_src_pread(s->ahead_src, s->ahead_dst + lo, n, s->ahead_off + lo, &e);
-    if (st == VG_OK) return;
-    pthread_mutex_lock(&s->lock);
-    if (k < s->fail_piece) {
-        s->fail_piece = k;
-        s->ahead_st = st;
-        s->ahead_err = e;
-    }
-    pthread_mutex_unlock(&s->lock);
+    if (st != VG_OK) keep_failure(s, &s->ahead_fail, k, st, &e);
 }
 
 /* Claim and convert chunks until none is left, then read pieces of the
@@ -298,8 +299,8 @@ vg_status vg_batch_run(vg_batch *b, vg_error *err) {
     atomic_init(&s.next, 0);
     atomic_init(&s.done, 0);
     pthread_mutex_init(&s.lock, NULL);
-    s.fail_chunk = SIZE_MAX;
-    s.fail_piece = SIZE_MAX;
+    s.fill_fail.at = SIZE_MAX;
+    s.ahead_fail.at = SIZE_MAX;
     s.ahead_src = b->ahead_src;
     s.ahead_dst = b->ahead_dst;
     s.ahead_n = b->ahead_src ? b->ahead_n : 0;
@@ -311,16 +312,14 @@ vg_status vg_batch_run(vg_batch *b, vg_error *err) {
     unsigned nt = VG_MIN(b->threads, (unsigned)(s.nchunks + s.npieces + (b->prev_n ? 1 : 0)));
     vg_parallel(nt ? nt : 1, stage_run, &s);
     pthread_mutex_destroy(&s.lock);
-    /* The previous batch's rows come first in the file, so its error
-     * does too. */
+    /* Errors in file order: the previous batch's rows, then this
+     * batch's, then the next window's bytes. */
     vg_status st = s.add_st;
-    if (st == VG_OK && s.fail_chunk != SIZE_MAX) {
-        *err = s.fail_err;
-        st = s.fail_st;
-    }
-    if (st == VG_OK && s.fail_piece != SIZE_MAX) {
-        *err = s.ahead_err;
-        st = s.ahead_st;
+    const failure *later[2] = {&s.fill_fail, &s.ahead_fail};
+    for (int i = 0; i < 2 && st == VG_OK; i++) {
+        if (later[i]->at == SIZE_MAX) continue;
+        *err = later[i]->err;
+        st = later[i]->st;
     }
     if (st != VG_OK) {
         clear_keys(b->rows, b->n);
