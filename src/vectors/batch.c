@@ -18,7 +18,7 @@
  * stored, and rows are still added strictly in file order, so results do
  * not depend on the thread count or on timing. The index lookups are
  * prefetched a few rows ahead. A caller reading its input with pread()
- * can hand a run its next read (vg_batch's ahead_*), done in pieces by
+ * can hand a run its next read (vg_batch's ahead), done in pieces by
  * whichever thread finds no chunk left to convert.
  */
 #include <math.h>
@@ -57,12 +57,10 @@ typedef struct stage {
     vg_batch *b;
     vg_batch_row *rows; /* this batch */
     size_t n, chunk, nchunks;
-    /* The read ahead (vg_batch's ahead_*), in npieces claimed after the
+    /* The run's read ahead (vg_batch's), in npieces claimed after the
      * chunks. */
-    vg_src *ahead_src;
-    char *ahead_dst;
-    size_t ahead_n, npieces;
-    uint64_t ahead_off;
+    vg_read_ahead ahead;
+    size_t npieces;
     atomic_size_t next; /* chunks (then pieces) claimed */
     atomic_size_t done; /* chunks converted */
     /* The lowest chunk whose fill failed and the lowest read-ahead
@@ -132,9 +130,10 @@ static void convert_chunk(stage *s, size_t c) {
 }
 
 static void read_piece(stage *s, size_t k) {
-    size_t lo = k * AHEAD_PIECE, n = VG_MIN(AHEAD_PIECE, s->ahead_n - lo);
+    const vg_read_ahead *a = &s->ahead;
+    size_t lo = k * AHEAD_PIECE, n = VG_MIN(AHEAD_PIECE, a->n - lo);
     vg_error e;
-    vg_status st = vg_src_pread(s->ahead_src, s->ahead_dst + lo, n, s->ahead_off + lo, &e);
+    vg_status st = vg_src_pread(a->src, a->dst + lo, n, a->off + lo, &e);
     if (st != VG_OK) keep_failure(s, &s->ahead_fail, k, st, &e);
 }
 
@@ -273,9 +272,9 @@ vg_status vg_batch_run(vg_batch *b, vg_error *err) {
     if (b->n == 0) {
         /* Nothing to convert: the read ahead is done here. */
         vg_status st = vg_batch_flush(b, err);
-        if (st == VG_OK && b->ahead_src)
-            st = vg_src_pread(b->ahead_src, b->ahead_dst, b->ahead_n, b->ahead_off, err);
-        b->ahead_src = NULL;
+        if (st == VG_OK && b->ahead.src)
+            st = vg_src_pread(b->ahead.src, b->ahead.dst, b->ahead.n, b->ahead.off, err);
+        b->ahead.src = NULL;
         return st;
     }
     /* Rows go to their file position: make room while nothing else
@@ -286,7 +285,7 @@ vg_status vg_batch_run(vg_batch *b, vg_error *err) {
         vg_src_hash_wait_upto(b->hash_src, vg_src_hash_submitted(b->hash_src));
     if (need > v->cap_rows && vg_vecbuild_reserve(v, need) != 0) {
         b->n = 0;
-        b->ahead_src = NULL;
+        b->ahead.src = NULL;
         return vg_error_set(err, VG_ENOMEM, b->path, 0, "out of memory for the matrix");
     }
     stage s;
@@ -301,14 +300,11 @@ vg_status vg_batch_run(vg_batch *b, vg_error *err) {
     pthread_mutex_init(&s.lock, NULL);
     s.fill_fail.at = SIZE_MAX;
     s.ahead_fail.at = SIZE_MAX;
-    s.ahead_src = b->ahead_src;
-    s.ahead_dst = b->ahead_dst;
-    s.ahead_n = b->ahead_src ? b->ahead_n : 0;
-    s.ahead_off = b->ahead_off;
-    s.npieces = (s.ahead_n + AHEAD_PIECE - 1) / AHEAD_PIECE;
+    s.ahead = b->ahead;
+    s.npieces = s.ahead.src ? (s.ahead.n + AHEAD_PIECE - 1) / AHEAD_PIECE : 0;
     s.add_st = VG_OK;
     s.add_err = err;
-    b->ahead_src = NULL;
+    b->ahead.src = NULL;
     unsigned nt = VG_MIN(b->threads, (unsigned)(s.nchunks + s.npieces + (b->prev_n ? 1 : 0)));
     vg_parallel(nt ? nt : 1, stage_run, &s);
     pthread_mutex_destroy(&s.lock);

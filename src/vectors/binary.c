@@ -148,12 +148,7 @@ static vg_status read_mapped(vg_src *src, size_t size, const vg_detect *d,
             vg_src_hash_wait_upto(src, wend[nx]);
             size_t nlen = VG_MIN(size - pos, wcap);
             int more = nlen > 0 && !(opt->max_words && n >= opt->max_words);
-            if (more) {
-                b.ahead_src = src;
-                b.ahead_dst = wins[nx];
-                b.ahead_n = nlen;
-                b.ahead_off = pos;
-            }
+            if (more) b.ahead = (vg_read_ahead){src, wins[nx], nlen, pos};
             st = vg_batch_run(&b, err);
             if (st == VG_OK) st = vg_src_advance(src, pos, err);
             wx = nx;

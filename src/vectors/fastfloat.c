@@ -136,7 +136,7 @@ int vg_scan_float(const char *p, const char *end, const char **tok_end, float *o
             if (k1 + k2 > 0 && VG_IS_DELIM(*s)) {
                 *tok_end = s;
                 if (w == 0) {
-                    *out = neg ? -0.0f : 0.0f;
+                    *out = vg_with_sign(0.0f, neg);
                     return VG_FLOAT_OK;
                 }
                 if (vg_float_round(w, k2, neg, out)) return VG_FLOAT_OK;
@@ -208,7 +208,7 @@ general:;
     if (s < end && !VG_IS_DELIM(*s)) goto slow;
     *tok_end = s;
     if (w == 0) {
-        *out = neg ? -0.0f : 0.0f;
+        *out = vg_with_sign(0.0f, neg);
         return VG_FLOAT_OK;
     }
     if (finish(w, e10, neg, out)) return VG_FLOAT_OK;

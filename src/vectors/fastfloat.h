@@ -117,7 +117,7 @@ static inline int vg_float_round(uint64_t w, unsigned k, int neg, float *out) {
     uint32_t low = (uint32_t)(bits & 0x1FFFFFFFu);
     if (!(q >= 0x1p-126) || low - ((1u << 28) - VG_MIDPOINT_MARGIN) <= 2 * VG_MIDPOINT_MARGIN) {
         if (w != 0) return 0;
-        *out = neg ? -0.0f : 0.0f;
+        *out = vg_with_sign(0.0f, neg);
         return 1;
     }
     *out = vg_with_sign((float)q, neg);

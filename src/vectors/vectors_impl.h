@@ -196,6 +196,14 @@ typedef struct vg_batch_row {
     unsigned char bad, keyfail;
 } vg_batch_row;
 
+/* n bytes of src from offset off into dst; src NULL: none. */
+typedef struct vg_read_ahead {
+    vg_src *src;
+    char *dst;
+    size_t n;
+    uint64_t off;
+} vg_read_ahead;
+
 typedef struct vg_batch {
     vg_vectors *v;          /* no row filter */
     const char *path;
@@ -213,15 +221,11 @@ typedef struct vg_batch {
     const char *where;      /* text before "word" in messages, or NULL */
     const char *conv_note;  /* text after "not finite", or NULL */
     unsigned threads;
-    /* Optional, for one run: read ahead_n bytes of ahead_src from
-     * ahead_off into ahead_dst meanwhile, in pieces taken by whichever
-     * thread has no row left to convert (the next window of a layout
-     * read by pread). The run clears it; a read error is the run's,
-     * after any error of its rows. */
-    vg_src *ahead_src;
-    char *ahead_dst;
-    size_t ahead_n;
-    uint64_t ahead_off;
+    /* Optional, for one run: a read done meanwhile, in pieces taken by
+     * whichever thread has no row left to convert (the next window of a
+     * layout read by pread). The run clears it; a read error is the
+     * run's, after any error of its rows. */
+    vg_read_ahead ahead;
     vg_batch_row *rows;     /* the batch being gathered: rows[0..n) */
     size_t n, cap;
     vg_batch_row *prev;     /* the batch converted last, not yet added */
