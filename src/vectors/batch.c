@@ -33,8 +33,9 @@
 /* Bytes of a read-ahead piece: enough to amortise a pread(), and a
  * window in a handful of pieces so that both threads share the read. */
 #define AHEAD_PIECE ((size_t)1 << 20)
-/* How far ahead of a borrowed row its bytes are prefetched. */
-#define PREFETCH_BYTES 4096
+/* Bytes of a piece of borrowed rows copied to check them: twice over
+ * in L2 (1 MiB a core here), and as fast as 1 MiB pieces. */
+#define SCRATCH_BYTES ((size_t)256 << 10)
 /* Rows ahead whose index slot is prefetched. */
 #define PREFETCH_AHEAD 8
 /* A batch is converted in at most this many chunks (of at least
@@ -83,10 +84,52 @@ static void keep_failure(stage *s, failure *f, size_t k, vg_status st, const vg_
     pthread_mutex_unlock(&s->lock);
 }
 
-static void convert_chunk(stage *s, size_t c) {
+/* Norm, finiteness and key of row r, whose values are x. */
+static void check_row(vg_batch_row *r, const float *x, size_t dims) {
+    r->norm = 0;
+    r->bad = !vg_row_norm_finite(x, dims, &r->norm);
+    r->keyfail = vg_rowkey_make_unfiltered(r->word, r->wlen, &r->key) != 0;
+}
+
+/* The fill failed for chunk c, rows[lo..hi), of which rows[lo..keyed)
+ * are keyed already: no row of the chunk may be added. */
+static void fill_failed(stage *s, size_t c, size_t lo, size_t keyed, size_t hi, vg_status st,
+                        const vg_error *e) {
+    vg_batch_row *rows = s->rows;
+    for (size_t i = lo; i < keyed; i++)
+        if (rows[i].keyfail == 0) vg_rowkey_clear(&rows[i].key);
+    for (size_t i = lo; i < hi; i++) rows[i].keyfail = 2;
+    keep_failure(s, &s->fill_fail, c, st, e);
+}
+
+/* Rows borrowed in the matrix, rows[lo..hi) of chunk c, checked from a
+ * copy read into thread t's scratch a piece at a time: the kernel copies
+ * from the page cache through its own large pages, while the mapping of
+ * a file cached in small folios costs a page walk every 4 KiB (one thread
+ * over 2.4 GB on the 2-core VM: 0.67 s through the mapping, 0.16 s for
+ * pread() into 256 KiB and the same sums, 2026-12-03). */
+static void check_copied(stage *s, size_t c, size_t lo, size_t hi, unsigned t) {
+    const vg_batch *b = s->b;
+    size_t dims = b->v->dims;
+    float *buf = b->scratch + (size_t)t * b->scratch_rows * dims;
+    vg_batch_row *rows = s->rows;
+    for (size_t i = lo; i < hi;) {
+        size_t n = VG_MIN(b->scratch_rows, hi - i);
+        vg_error e;
+        vg_status st = b->fill(b->fill_ctx, rows[i].file_row, n, buf, &e);
+        if (st != VG_OK) {
+            fill_failed(s, c, lo, i, hi, st, &e);
+            return;
+        }
+        for (size_t k = 0; k < n; k++) check_row(&rows[i + k], buf + k * dims, dims);
+        i += n;
+    }
+}
+
+static void convert_chunk(stage *s, size_t c, unsigned t) {
     const vg_batch *b = s->b;
     vg_vectors *v = b->v;
-    /* What of the set a chunk needs, read once: the adding thread writes
+    /* Copied out of v once: builder calls on the calling thread update
      * the set's counters beside these fields for every row, and reading
      * them per row would pull that cache line back and forth between
      * the threads (measured: twice the CPU time of both loops). They do
@@ -95,37 +138,30 @@ static void convert_chunk(stage *s, size_t c) {
     size_t ld = v->ld, dims = v->dims;
     size_t lo = c * s->chunk, hi = VG_MIN(lo + s->chunk, s->n);
     vg_batch_row *rows = s->rows;
+    if (b->in_matrix) {
+        /* Each chunk maps in its own part of the borrowed pages, for
+         * whoever reads the matrix next. */
+        vg_vecbuild_populate(v, rows[lo].file_row, hi - lo);
+        if (b->fill) {
+            check_copied(s, c, lo, hi, t);
+            return;
+        }
+    }
     if (b->fill) {
         vg_error e;
         vg_status st = b->fill(b->fill_ctx, rows[lo].file_row, hi - lo,
                                data + rows[lo].file_row * ld, &e);
         if (st != VG_OK) {
-            for (size_t i = lo; i < hi; i++) rows[i].keyfail = 2;
-            keep_failure(s, &s->fill_fail, c, st, &e);
+            fill_failed(s, c, lo, lo, hi, st, &e);
             return;
         }
     }
-    /* Each chunk maps in its own part of a borrowed matrix's pages. */
-    if (b->in_matrix) vg_vecbuild_populate(v, rows[lo].file_row, hi - lo);
     vg_convert_fn conv = b->fill ? NULL : b->conv;
     for (size_t i = lo; i < hi; i++) {
         vg_batch_row *r = &rows[i];
         float *dst = data + r->file_row * ld;
-        if (b->in_matrix) {
-            /* A borrowed mapping of a file the page cache holds in small
-             * folios: the hardware prefetcher stops at each 4 KiB page,
-             * so the bytes a page ahead are asked for now (2M x 300
-             * .npy, unhashed, just written: medians 0.78 and 0.77 s
-             * against 0.89 and 0.86 s in two sets of 12 and 10 paired
-             * runs; in 2 MiB folios no slower, 2026-12-03).
-             * A prefetch never faults, past the mapping's end either. */
-            const char *q = (const char *)dst + PREFETCH_BYTES;
-            for (size_t o = 0; o < dims * sizeof(float); o += 64) __builtin_prefetch(q + o);
-        }
         if (conv) conv(dst, r->src, dims, b->conv_ctx);
-        r->norm = 0;
-        r->bad = !vg_row_norm_finite(dst, dims, &r->norm);
-        r->keyfail = vg_rowkey_make_unfiltered(r->word, r->wlen, &r->key) != 0;
+        check_row(r, dst, dims);
     }
 }
 
@@ -139,7 +175,7 @@ static void read_piece(stage *s, size_t k) {
 
 /* Claim and convert chunks until none is left, then read pieces of the
  * read ahead (converting first: the matrix may wait on it in settle). */
-static void convert_some(stage *s) {
+static void convert_some(stage *s, unsigned t) {
     for (;;) {
         size_t c = atomic_fetch_add(&s->next, 1);
         if (c >= s->nchunks + s->npieces) return;
@@ -147,7 +183,7 @@ static void convert_some(stage *s) {
             read_piece(s, c - s->nchunks);
             continue;
         }
-        convert_chunk(s, c);
+        convert_chunk(s, c, t);
         atomic_fetch_add(&s->done, 1);
     }
 }
@@ -157,7 +193,7 @@ static void convert_some(stage *s) {
  * only a running thread claims). Needed before the matrix moves. */
 static void settle(stage *s) {
     if (!s) return;
-    convert_some(s);
+    convert_some(s, 0); /* thread 0's: only thread 0 adds rows */
     while (atomic_load(&s->done) < s->nchunks) sched_yield();
 }
 
@@ -234,7 +270,7 @@ static void stage_run(void *ctx, unsigned t, unsigned nt) {
         s->add_st = add_rows(b, b->prev, b->prev_n, s, s->add_err);
         b->prev_n = 0;
     }
-    convert_some(s);
+    convert_some(s, t);
 }
 
 size_t vg_batch_test_cap;
@@ -245,10 +281,17 @@ int vg_batch_alloc(vg_batch *b, size_t cap) {
     b->n = b->prev_n = 0;
     b->rows = vg_calloc(cap, sizeof *b->rows);
     b->prev = vg_calloc(cap, sizeof *b->prev);
-    if (b->rows && b->prev) return 0;
-    vg_free(b->rows);
-    vg_free(b->prev);
-    b->rows = b->prev = NULL;
+    b->scratch = NULL;
+    b->scratch_rows = 0;
+    int ok = b->rows && b->prev;
+    if (ok && b->in_matrix && b->fill) {
+        size_t rb = b->v->dims * sizeof(float), bytes;
+        b->scratch_rows = VG_MAX((size_t)1, SCRATCH_BYTES / rb);
+        ok = !vg_mul_overflow(b->scratch_rows * rb, VG_MAX(b->threads, 1u), &bytes) &&
+             (b->scratch = vg_aligned_alloc(64, bytes)) != NULL;
+    }
+    if (ok) return 0;
+    vg_batch_free(b);
     return -1;
 }
 
@@ -256,7 +299,9 @@ void vg_batch_free(vg_batch *b) {
     if (b->prev) clear_keys(b->prev, b->prev_n);
     vg_free(b->rows);
     vg_free(b->prev);
+    vg_free(b->scratch);
     b->rows = b->prev = NULL;
+    b->scratch = NULL;
     b->n = b->prev_n = 0;
 }
 

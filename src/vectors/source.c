@@ -394,9 +394,14 @@ static vg_status report(vg_src *s, uint64_t done, int force, vg_error *err) {
     return VG_OK;
 }
 
+uint64_t vg_src_test_pread_fail_from = UINT64_MAX;
+
 vg_status vg_src_pread(vg_src *s, void *dst, size_t n, uint64_t offset, vg_error *err) {
     if (offset > s->map_size || n > s->map_size - offset)
         return vg_error_set(err, VG_EINTERNAL, s->path, 0, "read past the end of the file");
+    if (n > 0 && offset + n > vg_src_test_pread_fail_from)
+        return vg_error_set(err, VG_EIO, s->path, 0, "read failed at byte %llu: %s",
+                            (unsigned long long)offset, strerror(EIO));
     if (s->map_fd < 0) {
         memcpy(dst, s->map + offset, n);
         return VG_OK;

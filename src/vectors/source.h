@@ -103,6 +103,10 @@ VG_INTERNAL void vg_src_close(vg_src *s);
  * 16 MiB; tests set it low to run that path on small files). */
 VG_INTERNAL extern size_t vg_src_hash_thread_min;
 
+/* Tests set this to make every vg_src_pread() that reaches this byte
+ * fail as a disk error would (EIO); UINT64_MAX (the default): never. */
+VG_INTERNAL extern uint64_t vg_src_test_pread_fail_from;
+
 /* How the lines of a regular text file are read. VG_SRC_TEXT_AUTO (the
  * default): the parsers walk the file's mapping where the page cache
  * holds the file in 2 MiB folios (vg_filemap_cached_huge), and a producer

@@ -160,6 +160,10 @@ int vg_vecbuild_borrow(vg_vectors *v, int fd, uint64_t offset, size_t rows) {
     return 0;
 }
 
+int vg_vecbuild_borrowed_huge(const vg_vectors *v) {
+    return v->borrow_map && vg_filemap_cached_huge(v->borrow_map, v->borrow_len) == 1;
+}
+
 void vg_vecbuild_populate(vg_vectors *v, size_t row, size_t n) {
 #ifdef MADV_POPULATE_READ
     if (!v->borrow_map || row >= v->cap_rows) return;

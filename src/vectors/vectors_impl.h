@@ -116,6 +116,10 @@ VG_INTERNAL int vg_vecbuild_reserve(vg_vectors *v, size_t rows);
  * -1 when the rows cannot be mapped (the caller then reads them). While
  * borrowed, the rows must not move: vg_vecbuild_own copies them first. */
 VG_INTERNAL int vg_vecbuild_borrow(vg_vectors *v, int fd, uint64_t offset, size_t rows);
+/* 1 when the page cache holds the borrowed rows in 2 MiB folios (each
+ * mapped with one entry, read at memory speed), else 0: then 4 KiB
+ * entries make every first read through the mapping a page walk. */
+VG_INTERNAL int vg_vecbuild_borrowed_huge(const vg_vectors *v);
 /* Map in (from the page cache, reading any not cached) the borrowed rows
  * [row, row + n) ahead of use; a no-op when nothing is borrowed. */
 VG_INTERNAL void vg_vecbuild_populate(vg_vectors *v, size_t row, size_t n);
@@ -215,8 +219,9 @@ typedef struct vg_batch {
     void *fill_ctx;
     vg_src *hash_src;       /* fill mode: submit the rows read for hashing */
     int in_matrix;          /* the stored rows are in the matrix already (a
-                               borrowed file mapping, never hashed): no fill,
-                               no conv */
+                               borrowed file mapping, never hashed): no
+                               conv, and fill copies rows to check into
+                               scratch instead of into the matrix */
     const void *conv_ctx;
     const char *where;      /* text before "word" in messages, or NULL */
     const char *conv_note;  /* text after "not finite", or NULL */
@@ -230,10 +235,20 @@ typedef struct vg_batch {
     size_t n, cap;
     vg_batch_row *prev;     /* the batch converted last, not yet added */
     size_t prev_n;
+    float *scratch;         /* in_matrix: threads x scratch_rows rows */
+    size_t scratch_rows;
 } vg_batch;
 
-/* Room for batches of cap rows (the two arrays rows and prev); the other
- * fields are the caller's. -1 when out of memory. */
+/* How an unhashed .npy's borrowed rows are checked. VG_BORROW_CHECK_AUTO
+ * (the default): through the mapping where the page cache holds them in
+ * 2 MiB folios (vg_vecbuild_borrowed_huge), from copies otherwise. Tests
+ * force either way. */
+enum { VG_BORROW_CHECK_AUTO, VG_BORROW_CHECK_MAPPED, VG_BORROW_CHECK_COPIED };
+VG_INTERNAL extern int vg_borrow_check_mode;
+
+/* Room for batches of cap rows (the two arrays rows and prev, and with
+ * in_matrix each thread's scratch: v, threads and in_matrix are set
+ * first); the other fields are the caller's. -1 when out of memory. */
 VG_INTERNAL int vg_batch_alloc(vg_batch *b, size_t cap);
 /* Tests set this to make batches of at most that many rows. */
 VG_INTERNAL extern size_t vg_batch_test_cap;

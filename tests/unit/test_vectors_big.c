@@ -664,7 +664,12 @@ static void test_batch_pipeline(void **state) {
                      * reads each window while the next ones are read
                      * into the others in turn. */
                     if (t == 1) vg_src_hash_thread_min = 1;
+                    /* An unhashed npy's borrowed rows are checked
+                     * through the mapping and from copies in turn. */
+                    vg_borrow_check_mode =
+                        (c + t) % 2 ? VG_BORROW_CHECK_COPIED : VG_BORROW_CHECK_MAPPED;
                     assert_vg_ok(vg_vectors_load(paths[l], &opt, &v, &err), &err);
+                    vg_borrow_check_mode = VG_BORROW_CHECK_AUTO;
                     vg_src_hash_thread_min = (size_t)16 << 20;
                     vg_batch_test_cap = 0;
                     const vg_vectors_info *in = vg_vectors_get_info(v);
@@ -703,6 +708,78 @@ static void test_batch_pipeline(void **state) {
         }
     }
     memcpy(words[dup], keepw, sizeof keepw);
+    unlink(paths[0]);
+    unlink(paths[1]);
+    char vp[4200];
+    snprintf(vp, sizeof vp, "%.*s.vocab", (int)(strlen(paths[1]) - 4), paths[1]);
+    unlink(vp);
+}
+
+/* read-err-1: a disk error part way through a binary or npy file (every
+ * read from the byte of row 1500 fails with EIO): the load fails with
+ * VG_EIO, naming the file and a byte before the failing one, whichever
+ * way the rows are read (batches of 7 rows or the default, 1 and 2
+ * threads, hashed or not, a borrowed npy's rows checked through the
+ * mapping or from copies), and frees all it made (the sanitizer builds
+ * find leaks). */
+static void test_read_errors(void **state) {
+    (void)state;
+    const size_t rows = 3000, at = 1500;
+    char paths[2][4096];
+    snprintf(paths[0], sizeof paths[0], "%s", temp_path("re.bin"));
+    snprintf(paths[1], sizeof paths[1], "%s", temp_path("re.npy"));
+    write_set(paths[0], W_BINARY, 0, rows);
+    write_set(paths[1], W_NPY, 0, rows);
+    for (size_t l = 0; l < 2; l++) {
+        /* The byte of row `at`: binary rows are "word " and the values,
+         * then '\n'; npy rows follow its header. */
+        vg_vectors *ok = load_threads(paths[l], 1);
+        uint64_t fail_from = 0;
+        if (l == 0) {
+            FILE *fp = fopen(paths[0], "rb");
+            assert_non_null(fp);
+            char line[64];
+            assert_non_null(fgets(line, sizeof line, fp));
+            fail_from = (uint64_t)strlen(line);
+            fclose(fp);
+            for (size_t i = 0; i < at; i++) fail_from += strlen(words[i]) + 1 + DIMS * 4 + 1;
+        } else {
+            fail_from = vg_vectors_get_info(ok)->bytes - (uint64_t)(rows - at) * DIMS * 4;
+        }
+        vg_vectors_free(ok);
+        for (int mode = 0; mode < 4; mode++) {
+            for (size_t t = 1; t <= 2; t++) {
+                vg_load_options opt;
+                vg_load_options_init(&opt);
+                opt.threads = (unsigned)t;
+                opt.compute_hash = mode == 3;
+                vg_batch_test_cap = mode == 0 ? 7 : 0;
+                vg_borrow_check_mode = mode == 1 ? VG_BORROW_CHECK_MAPPED : VG_BORROW_CHECK_COPIED;
+                vg_src_test_pread_fail_from = fail_from;
+                vg_vectors *v = NULL;
+                vg_error err;
+                vg_status st = vg_vectors_load(paths[l], &opt, &v, &err);
+                vg_src_test_pread_fail_from = UINT64_MAX;
+                vg_borrow_check_mode = VG_BORROW_CHECK_AUTO;
+                vg_batch_test_cap = 0;
+                if (l == 1 && mode == 1) {
+                    /* Borrowed and read through the mapping: no read. */
+                    assert_vg_ok(st, &err);
+                    assert_int_equal(vg_vectors_rows(v), rows);
+                    vg_vectors_free(v);
+                    continue;
+                }
+                assert_int_equal(st, VG_EIO);
+                assert_null(v);
+                assert_non_null(strstr(err.path, l ? "re.npy" : "re.bin"));
+                unsigned long long byte = 0;
+                const char *m = strstr(err.message, "read failed at byte ");
+                assert_non_null(m);
+                assert_int_equal(sscanf(m, "read failed at byte %llu", &byte), 1);
+                assert_true(byte <= fail_from);
+            }
+        }
+    }
     unlink(paths[0]);
     unlink(paths[1]);
     char vp[4200];
@@ -766,6 +843,7 @@ int main(void) {
         cmocka_unit_test(test_nonfinite_files),
         cmocka_unit_test(test_vocab_lists),
         cmocka_unit_test(test_batch_pipeline),
+        cmocka_unit_test(test_read_errors),
         cmocka_unit_test(test_pipes),
         cmocka_unit_test(test_partial_hash),
     };
