@@ -50,6 +50,14 @@ VG_API vg_status vg_file_sha256(const char *path, char hex[65], uint64_t *bytes,
  * entry point that uses GSL calls it. */
 VG_API void vg_init(void);
 
+/* For a program's main, while no other thread uses BLAS: puts OpenBLAS's
+ * idle worker threads away (they poll a core for about 0.1 s after start
+ * and after each threaded call; the next threaded call starts them
+ * again). Does nothing with a BLAS that has no such pool. The vecgauge
+ * command calls it first thing; the library never does, since it cannot
+ * know what else in the process uses BLAS. */
+VG_API void vg_blas_park_workers(void);
+
 #ifdef __cplusplus
 }
 #endif

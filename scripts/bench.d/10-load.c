@@ -139,6 +139,7 @@ static double now(void) {
 
 static int load(int argc, char **argv) {
     vg_init();
+    vg_blas_park_workers(); /* as the vecgauge command does first */
     vg_load_options opt;
     vg_load_options_init(&opt);
     const char *path = NULL;

@@ -74,6 +74,9 @@ static int cmd_help(int argc, char **argv) {
 
 int main(int argc, char **argv) {
     vg_init();
+    /* Before any thread of ours starts: OpenBLAS's polling workers would
+     * take a core from loading (vecgauge.h). */
+    vg_blas_park_workers();
     vg_cli_argc = argc;
     vg_cli_argv = argv;
     vg_cli_install_signals();

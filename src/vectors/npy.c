@@ -274,10 +274,11 @@ static vg_status read_c_mapped(vg_src *src, const char *data, const vg_npy_heade
     if (borrowed) {
         /* The rows are in place already; the batches check them. In
          * small folios they check copies (batch.c's check_copied): 2M x
-         * 300, just written, medians 0.49 s against 0.85 s in 8 paired
-         * runs; in 2 MiB folios reading the mapping stays faster (0.33 s
-         * against 0.39 s), 2026-12-03. A file not cached yet is read in
-         * here, through the mapping advised for huge pages. */
+         * 300, just written, medians 0.49 and 0.43 s against 0.85 and
+         * 0.77 s in 8 and 10 paired runs; in 2 MiB folios reading the
+         * mapping stays faster (0.33 s against 0.39 s), 2026-12-03. A
+         * file not cached yet is read in through the mapping advised for
+         * huge pages, so it lands in 2 MiB folios and is read that way. */
         b.conv = NULL;
         b.in_matrix = 1;
         int copied = vg_borrow_check_mode == VG_BORROW_CHECK_AUTO

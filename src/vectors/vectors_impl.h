@@ -118,7 +118,8 @@ VG_INTERNAL int vg_vecbuild_reserve(vg_vectors *v, size_t rows);
 VG_INTERNAL int vg_vecbuild_borrow(vg_vectors *v, int fd, uint64_t offset, size_t rows);
 /* 1 when the page cache holds the borrowed rows in 2 MiB folios (each
  * mapped with one entry, read at memory speed), else 0: then 4 KiB
- * entries make every first read through the mapping a page walk. */
+ * entries make every first read through the mapping a page walk. Reads
+ * the middle 2 MiB in if they are not cached (vg_filemap_cached_huge). */
 VG_INTERNAL int vg_vecbuild_borrowed_huge(const vg_vectors *v);
 /* Map in (from the page cache, reading any not cached) the borrowed rows
  * [row, row + n) ahead of use; a no-op when nothing is borrowed. */

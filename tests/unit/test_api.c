@@ -3,6 +3,9 @@
  */
 #include "vgtest.h"
 
+#include <cblas.h>
+#include <dirent.h>
+
 /* api-1: vg_version() matches the header's version macros (the check
  * zlib's deflateInit_ makes between header and library). */
 static void test_version(void **state) {
@@ -38,10 +41,61 @@ static void test_error_format(void **state) {
     assert_int_equal(vg_error_set(NULL, VG_ENOMEM, NULL, 0, "x"), VG_ENOMEM);
 }
 
+/* Threads of this process, from /proc/self/task (0 where there is none). */
+static int count_threads(void) {
+    DIR *d = opendir("/proc/self/task");
+    if (!d) return 0;
+    int n = 0;
+    struct dirent *e;
+    while ((e = readdir(d)) != NULL)
+        if (e->d_name[0] != '.') n++;
+    closedir(d);
+    return n;
+}
+
+/* api-3: vg_blas_park_workers puts OpenBLAS's idle pool away (where the
+ * process had more threads than its own one, it has fewer after), and the
+ * next threaded product starts the pool again and is right: a 512 x 512
+ * sgemm of small integers equals the plain triple loop exactly (integer
+ * products and sums below 2^24 are exact in float: common practice). */
+static void test_blas_pool(void **state) {
+    (void)state;
+    enum { N = 512 };
+    float *a = malloc(sizeof(float) * N * N), *b = malloc(sizeof(float) * N * N);
+    float *c = malloc(sizeof(float) * N * N);
+    assert_non_null(a);
+    assert_non_null(b);
+    assert_non_null(c);
+    for (int i = 0; i < N * N; i++) {
+        a[i] = (float)(i % 7) - 3;
+        b[i] = (float)(i % 5) - 2;
+    }
+    int before = count_threads();
+    for (int round = 0; round < 2; round++) {
+        vg_blas_park_workers();
+        int parked = count_threads();
+        if (before > 1) assert_true(parked < before);
+        cblas_sgemm(CblasRowMajor, CblasNoTrans, CblasNoTrans, N, N, N, 1.0f, a, N, b, N, 0.0f,
+                    c, N);
+        assert_int_equal(count_threads(), before);
+        for (int i = 0; i < N; i += 37) {
+            for (int j = 0; j < N; j += 41) {
+                float want = 0;
+                for (int k = 0; k < N; k++) want += a[i * N + k] * b[k * N + j];
+                assert_true(c[i * N + j] == want);
+            }
+        }
+    }
+    free(a);
+    free(b);
+    free(c);
+}
+
 int main(void) {
     const struct CMUnitTest tests[] = {
         cmocka_unit_test(test_version),
         cmocka_unit_test(test_error_format),
+        cmocka_unit_test(test_blas_pool),
     };
     return cmocka_run_group_tests_name("api", tests, NULL, NULL);
 }
