@@ -19,7 +19,9 @@
  * not depend on the thread count or on timing. The index lookups are
  * prefetched a few rows ahead. A caller reading its input with pread()
  * can hand a run its next read (vg_batch's ahead), done in pieces by
- * whichever thread finds no chunk left to convert.
+ * whichever thread finds no chunk left to convert. Rows that are in the
+ * matrix already (a borrowed .npy mapping) are only checked, from copies
+ * in each thread's scratch where reading the mapping would be slow.
  */
 #include <math.h>
 #include <sched.h>
@@ -129,7 +131,7 @@ static void check_copied(stage *s, size_t c, size_t lo, size_t hi, unsigned t) {
 static void convert_chunk(stage *s, size_t c, unsigned t) {
     const vg_batch *b = s->b;
     vg_vectors *v = b->v;
-    /* Copied out of v once: builder calls on the calling thread update
+    /* What of the set a chunk needs, read once: the adding thread writes
      * the set's counters beside these fields for every row, and reading
      * them per row would pull that cache line back and forth between
      * the threads (measured: twice the CPU time of both loops). They do
