@@ -67,6 +67,9 @@ static vg_status read_mapped(vg_src *src, size_t size, const vg_detect *d,
     b.path = path;
     b.opt = opt;
     b.conv = conv_le32;
+#if !(defined(__BYTE_ORDER__) && __BYTE_ORDER__ == __ORDER_BIG_ENDIAN__)
+    b.stored_f32 = 1; /* load_le32 is a plain copy here */
+#endif
     b.threads = vg_threads_resolve(opt->threads);
     /* A row takes at least rb + 2 bytes (a word, a space, the values), so
      * a batch holds no more rows than that divides into its bytes or into

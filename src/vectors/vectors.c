@@ -50,17 +50,27 @@ vg_status vg_layout_parse(const char *name, vg_layout *out) {
     return VG_EINVAL;
 }
 
+/* The float at byte p, whatever p's alignment. */
+static inline float float_at(const char *p) {
+    float f;
+    memcpy(&f, p, sizeof f);
+    return f;
+}
+
 /* The L2 norm with eight partial sums, element j into sum j % 8, then
  * ((s0 + s1) + (s2 + s3)) + ((s4 + s5) + (s6 + s7)). The SSE2 code does
  * exactly these double operations in that order (two sums per register,
- * no fused multiply-add), so every build gives the same bits. */
-static double sum_squares(const float *x, size_t n) {
+ * no fused multiply-add), so every build gives the same bits. The n
+ * floats start at byte p, at any alignment (a binary file's values
+ * follow its words). */
+static double sum_squares(const char *p, size_t n) {
     double s[8] = {0, 0, 0, 0, 0, 0, 0, 0};
     size_t j = 0;
 #ifdef __SSE2__
     __m128d a0 = _mm_setzero_pd(), a1 = a0, a2 = a0, a3 = a0;
     for (; j + 8 <= n; j += 8) {
-        __m128 u = _mm_loadu_ps(x + j), w = _mm_loadu_ps(x + j + 4);
+        __m128 u = _mm_loadu_ps((const float *)(const void *)(p + 4 * j));
+        __m128 w = _mm_loadu_ps((const float *)(const void *)(p + 4 * j + 16));
         __m128d d0 = _mm_cvtps_pd(u), d1 = _mm_cvtps_pd(_mm_movehl_ps(u, u));
         __m128d d2 = _mm_cvtps_pd(w), d3 = _mm_cvtps_pd(_mm_movehl_ps(w, w));
         a0 = _mm_add_pd(a0, _mm_mul_pd(d0, d0));
@@ -73,25 +83,62 @@ static double sum_squares(const float *x, size_t n) {
     _mm_storeu_pd(s + 4, a2);
     _mm_storeu_pd(s + 6, a3);
 #else
-    for (; j + 8 <= n; j += 8)
-        for (size_t k = 0; k < 8; k++) s[k] += (double)x[j + k] * x[j + k];
+    for (; j + 8 <= n; j += 8) {
+        for (size_t k = 0; k < 8; k++) {
+            double x = float_at(p + 4 * (j + k));
+            s[k] += x * x;
+        }
+    }
 #endif
-    for (; j < n; j++) s[j % 8] += (double)x[j] * x[j];
+    for (; j < n; j++) {
+        double x = float_at(p + 4 * j);
+        s[j % 8] += x * x;
+    }
     return ((s[0] + s[1]) + (s[2] + s[3])) + ((s[4] + s[5]) + (s[6] + s[7]));
 }
 
-float vg_row_norm(const float *x, size_t n) { return (float)sqrt(sum_squares(x, n)); }
+float vg_row_norm(const float *x, size_t n) {
+    return (float)sqrt(sum_squares((const char *)x, n));
+}
 
-int vg_row_norm_finite(const float *x, size_t n, float *norm) {
+int vg_stored_norm_finite(const void *p, size_t n, float *norm) {
     /* The squares of finite floats, summed in double, stay finite (each
      * is below 2^256; no row has 2^700 values), while one NaN or infinity
      * makes the sum NaN or infinite (squares are never negative, so no
      * infinity can cancel): the sum alone tells whether the row is
      * finite, and the row is read once instead of twice. */
-    double q = sum_squares(x, n);
+    double q = sum_squares(p, n);
     if (!isfinite(q)) return 0;
     *norm = (float)sqrt(q);
     return 1;
+}
+
+int vg_row_norm_finite(const float *x, size_t n, float *norm) {
+    return vg_stored_norm_finite(x, n, norm);
+}
+
+void vg_row_copy_stream(float *dst, const void *src, size_t n) {
+#ifdef __SSE2__
+    const char *p = src;
+    size_t j = 0;
+    /* Streaming stores need 16-byte aligned targets: the first floats
+     * of a row whose start is not are stored plainly. */
+    while (j < n && ((uintptr_t)(dst + j) & 15) != 0) {
+        dst[j] = float_at(p + 4 * j);
+        j++;
+    }
+    for (; j + 4 <= n; j += 4)
+        _mm_stream_ps(dst + j, _mm_loadu_ps((const float *)(const void *)(p + 4 * j)));
+    for (; j < n; j++) dst[j] = float_at(p + 4 * j);
+#else
+    memcpy(dst, src, n * sizeof(float));
+#endif
+}
+
+void vg_row_copy_fence(void) {
+#ifdef __SSE2__
+    _mm_sfence();
+#endif
 }
 
 int vg_all_finite(const float *x, size_t n) {

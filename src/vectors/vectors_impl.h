@@ -159,6 +159,15 @@ VG_INTERNAL float vg_row_norm(const float *x, size_t n);
 /* vg_row_norm and vg_all_finite in one pass: 1 with *norm set when
  * every x[i] is finite, else 0 (*norm untouched). */
 VG_INTERNAL int vg_row_norm_finite(const float *x, size_t n, float *norm);
+/* The same for n native floats stored from byte p, at any alignment. */
+VG_INTERNAL int vg_stored_norm_finite(const void *p, size_t n, float *norm);
+
+/* Copy n native floats stored from byte src (any alignment) to dst with
+ * streaming stores, which write memory without reading the target's
+ * lines first (fresh matrix memory is not in cache); before another
+ * thread reads dst, the writer calls vg_row_copy_fence. */
+VG_INTERNAL void vg_row_copy_stream(float *dst, const void *src, size_t n);
+VG_INTERNAL void vg_row_copy_fence(void);
 
 /* 1 if every x[i] is finite. */
 VG_INTERNAL int vg_all_finite(const float *x, size_t n);
@@ -224,6 +233,9 @@ typedef struct vg_batch {
                                conv, and fill copies rows to check into
                                scratch instead of into the matrix */
     const void *conv_ctx;
+    int stored_f32;         /* the stored values are native float32 (conv
+                               would copy them unchanged): copied with
+                               streaming stores, checked where stored */
     const char *where;      /* text before "word" in messages, or NULL */
     const char *conv_note;  /* text after "not finite", or NULL */
     unsigned threads;

@@ -475,6 +475,40 @@ static void test_norms(void **state) {
  * (+-FLT_MAX, the smallest subnormal, -0) among the values, and a NaN
  * (quiet, signalling, negative, with a payload) or an infinity of either
  * sign at every position. */
+/* norm-3: rows as a binary file stores them, at any byte alignment:
+ * vg_stored_norm_finite gives the aligned copy's vg_row_norm bit for bit,
+ * and vg_row_copy_stream (streaming stores after a plain head up to a
+ * 16-byte boundary) writes exactly memcpy's bytes and nothing around
+ * them, for every source offset 0-15, target offset 0-3 floats and
+ * length 0-40 and 300. */
+static void test_stored_rows(void **state) {
+    (void)state;
+    static float want[300];
+    static _Alignas(64) unsigned char stored[300 * 4 + 16];
+    static _Alignas(64) float out[300 + 8];
+    for (size_t j = 0; j < 300; j++) want[j] = (float)(((double)(rng() >> 11) * 0x1p-53 - 0.5) * 8);
+    for (size_t n = 0; n <= 300; n = n < 40 ? n + 1 : 300) {
+        float ref = vg_row_norm(want, n);
+        for (size_t so = 0; so < 16; so++) {
+            memcpy(stored + so, want, n * sizeof(float));
+            float norm = -1;
+            assert_int_equal(vg_stored_norm_finite(stored + so, n, &norm), 1);
+            assert_memory_equal(&norm, &ref, sizeof norm);
+            for (size_t d0 = 0; d0 < 4; d0++) {
+                memset(out, 0xa5, sizeof out);
+                vg_row_copy_stream(out + d0, stored + so, n);
+                vg_row_copy_fence();
+                assert_memory_equal(out + d0, want, n * sizeof(float));
+                const unsigned char *o = (const unsigned char *)out;
+                for (size_t k = 0; k < d0 * sizeof(float); k++) assert_int_equal(o[k], 0xa5);
+                for (size_t k = (d0 + n) * sizeof(float); k < sizeof out; k++)
+                    assert_int_equal(o[k], 0xa5);
+            }
+        }
+        if (n == 300) break;
+    }
+}
+
 static void test_norm_finite(void **state) {
     (void)state;
     static const uint32_t bad_bits[] = {0x7fc00000u, 0x7f800001u, 0xffc00001u,
@@ -840,6 +874,7 @@ int main(void) {
         cmocka_unit_test(test_filter_and_max),
         cmocka_unit_test(test_norms),
         cmocka_unit_test(test_norm_finite),
+        cmocka_unit_test(test_stored_rows),
         cmocka_unit_test(test_nonfinite_files),
         cmocka_unit_test(test_vocab_lists),
         cmocka_unit_test(test_batch_pipeline),
