@@ -248,7 +248,7 @@ typedef struct vg_batch {
     size_t n, cap;
     vg_batch_row *prev;     /* the batch converted last, not yet added */
     size_t prev_n;
-    float *scratch;         /* in_matrix: threads x scratch_rows rows */
+    float *scratch;         /* in_matrix with fill: threads x scratch_rows rows */
     size_t scratch_rows;
 } vg_batch;
 
@@ -260,8 +260,9 @@ enum { VG_BORROW_CHECK_AUTO, VG_BORROW_CHECK_MAPPED, VG_BORROW_CHECK_COPIED };
 VG_INTERNAL extern int vg_borrow_check_mode;
 
 /* Room for batches of cap rows (the two arrays rows and prev, and with
- * in_matrix each thread's scratch: v, threads and in_matrix are set
- * first); the other fields are the caller's. -1 when out of memory. */
+ * in_matrix and fill each thread's scratch: v, threads, in_matrix and
+ * fill are set first); the other fields are the caller's. -1 when out of
+ * memory. */
 VG_INTERNAL int vg_batch_alloc(vg_batch *b, size_t cap);
 /* Tests set this to make batches of at most that many rows. */
 VG_INTERNAL extern size_t vg_batch_test_cap;
