@@ -7,6 +7,7 @@
 #ifndef VG_CLI_H
 #define VG_CLI_H
 
+#include <signal.h>
 #include <stddef.h>
 #include <stdint.h>
 
@@ -175,6 +176,11 @@ int vg_cli_parse_methods(const char *s, unsigned *out);
  * stop. */
 void vg_cli_install_signals(void);
 void vg_cli_set_cleanup(const char *temp_dir, const char *const *names);
+/* Hold SIGINT and SIGTERM back (the previous mask saved in *old) and let
+ * them through again: around a step that creates what a cleanup must
+ * then be registered for, a signal is delivered once it is. */
+void vg_cli_hold_signals(sigset_t *old);
+void vg_cli_release_signals(const sigset_t *old);
 int vg_cli_interrupted(void);
 
 /* The commands. Each gets argv starting at the command name. */

@@ -147,11 +147,20 @@ int vg_cli_write_dir(const char *dir, const vg_cli_file *files, size_t n, char *
     for (size_t i = 0; i < n; i++) names[i] = files[i].name;
     for (size_t i = 0; i < n_plots; i++) names[n + i] = plot_names[i];
     vg_rundir *rd = NULL;
-    vg_status st = vg_rundir_begin(dir, &rd, &err);
-    vg_cli_set_cleanup(rd ? vg_rundir_temp_path(rd) : NULL, names);
-    /* The same test hook as for run directories (run_output.c). */
+    /* The temporary directory exists from vg_rundir_begin on: a signal
+     * before it is registered would leave it behind (seen once in the
+     * SIGTERM test under a loaded CI run), so signals wait until then. */
+    /* The test hook: pauses between the steps, the first one while the
+     * temporary directory exists but signals wait, so that the tests'
+     * interrupts land in that window as well as later. */
     const char *slow = getenv("VECGAUGE_TEST_SLOW_WRITE");
     int pause = slow && *slow == '1';
+    sigset_t old;
+    vg_cli_hold_signals(&old);
+    vg_status st = vg_rundir_begin(dir, &rd, &err);
+    if (pause && st == VG_OK) usleep(200000);
+    vg_cli_set_cleanup(rd ? vg_rundir_temp_path(rd) : NULL, names);
+    vg_cli_release_signals(&old);
     for (size_t i = 0; st == VG_OK && i < n; i++) {
         if (plots && i + 1 == n) {
             if (pause) usleep(200000);

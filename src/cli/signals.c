@@ -60,14 +60,21 @@ void vg_cli_install_signals(void) {
     sigaction(SIGTERM, &sa, NULL);
 }
 
-void vg_cli_set_cleanup(const char *temp_dir, const char *const *names) {
-    /* Block the signals while the path changes so that the handler never
-     * sees a half-copied path. */
-    sigset_t block, old;
+void vg_cli_hold_signals(sigset_t *old) {
+    sigset_t block;
     sigemptyset(&block);
     sigaddset(&block, SIGINT);
     sigaddset(&block, SIGTERM);
-    sigprocmask(SIG_BLOCK, &block, &old);
+    sigprocmask(SIG_BLOCK, &block, old);
+}
+
+void vg_cli_release_signals(const sigset_t *old) { sigprocmask(SIG_SETMASK, old, NULL); }
+
+void vg_cli_set_cleanup(const char *temp_dir, const char *const *names) {
+    /* Block the signals while the path changes so that the handler never
+     * sees a half-copied path. */
+    sigset_t old;
+    vg_cli_hold_signals(&old);
     if (temp_dir && strlen(temp_dir) < sizeof cleanup_dir) {
         memcpy(cleanup_dir, temp_dir, strlen(temp_dir) + 1);
         run_names = names;
@@ -75,7 +82,7 @@ void vg_cli_set_cleanup(const char *temp_dir, const char *const *names) {
     } else {
         cleanup_set = 0;
     }
-    sigprocmask(SIG_SETMASK, &old, NULL);
+    vg_cli_release_signals(&old);
 }
 
 int vg_cli_interrupted(void) { return got_signal != 0; }

@@ -107,7 +107,10 @@ fi
 check "--out makes missing parent folders" test -f "$TMP/new/deeper/run/run.json"
 
 # SIGINT while the run directory is being written: nothing is left, not
-# the run directory and not its temporary. SIGTERM likewise.
+# the run directory and not its temporary. SIGTERM likewise. The test
+# hook's first pause comes just after the temporary directory is made, so
+# the interrupt lands before the cleanup would be registered if signals
+# were not held back until it is (a CI run once left the directory so).
 for sig in INT TERM; do
     VECGAUGE_TEST_SLOW_WRITE=1 "$VG_BIN" score --pairs "$F/pairs/basic.tsv" --out "$TMP/int-$sig" \
         "$F/vectors/header.txt" > /dev/null 2>&1 &
