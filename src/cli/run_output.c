@@ -148,11 +148,10 @@ int vg_cli_write_dir(const char *dir, const vg_cli_file *files, size_t n, char *
     for (size_t i = 0; i < n_plots; i++) names[n + i] = plot_names[i];
     vg_rundir *rd = NULL;
     /* The temporary directory exists from vg_rundir_begin on: a signal
-     * before it is registered would leave it behind (seen once in the
-     * SIGTERM test under a loaded CI run), so signals wait until then. */
-    /* The test hook: pauses between the steps, the first one while the
-     * temporary directory exists but signals wait, so that the tests'
-     * interrupts land in that window as well as later. */
+     * before its cleanup is registered would leave it behind (seen once
+     * in the SIGTERM test under a loaded CI run), so signals wait until
+     * then. The test hook pauses between the steps, first inside that
+     * window, so that the tests' interrupts land there as well as later. */
     const char *slow = getenv("VECGAUGE_TEST_SLOW_WRITE");
     int pause = slow && *slow == '1';
     sigset_t old;

@@ -90,7 +90,7 @@ static void keep_failure(stage *s, failure *f, size_t k, vg_status st, const vg_
  * stored from byte x. */
 static void check_row(vg_batch_row *r, const void *x, size_t dims) {
     r->norm = 0;
-    r->bad = !vg_stored_norm_finite(x, dims, &r->norm);
+    r->bad = !vg_row_norm_finite(x, dims, &r->norm);
     r->keyfail = vg_rowkey_make_unfiltered(r->word, r->wlen, &r->key) != 0;
 }
 

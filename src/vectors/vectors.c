@@ -101,7 +101,7 @@ float vg_row_norm(const float *x, size_t n) {
     return (float)sqrt(sum_squares((const char *)x, n));
 }
 
-int vg_stored_norm_finite(const void *p, size_t n, float *norm) {
+int vg_row_norm_finite(const void *p, size_t n, float *norm) {
     /* The squares of finite floats, summed in double, stay finite (each
      * is below 2^256; no row has 2^700 values), while one NaN or infinity
      * makes the sum NaN or infinite (squares are never negative, so no
@@ -111,10 +111,6 @@ int vg_stored_norm_finite(const void *p, size_t n, float *norm) {
     if (!isfinite(q)) return 0;
     *norm = (float)sqrt(q);
     return 1;
-}
-
-int vg_row_norm_finite(const float *x, size_t n, float *norm) {
-    return vg_stored_norm_finite(x, n, norm);
 }
 
 void vg_row_copy_stream(float *dst, const void *src, size_t n) {

@@ -156,11 +156,11 @@ VG_INTERNAL vg_status vg_vecbuild_finish(vg_vectors *v, vg_error *err);
  * build gives identical norms for identical values. */
 VG_INTERNAL float vg_row_norm(const float *x, size_t n);
 
-/* vg_row_norm and vg_all_finite in one pass: 1 with *norm set when
- * every x[i] is finite, else 0 (*norm untouched). */
-VG_INTERNAL int vg_row_norm_finite(const float *x, size_t n, float *norm);
-/* The same for n native floats stored from byte p, at any alignment. */
-VG_INTERNAL int vg_stored_norm_finite(const void *p, size_t n, float *norm);
+/* vg_row_norm and vg_all_finite in one pass over the n native floats
+ * stored from byte p, at any alignment (binary rows are checked where
+ * the file stores them): 1 with *norm set when every value is finite,
+ * else 0 (*norm untouched). */
+VG_INTERNAL int vg_row_norm_finite(const void *p, size_t n, float *norm);
 
 /* Copy n native floats stored from byte src (any alignment) to dst with
  * streaming stores, which write memory without reading the target's

@@ -468,15 +468,8 @@ static void test_norms(void **state) {
     unlink(path);
 }
 
-/* finite-1: the one-pass check and norm. The reference for "finite" is
- * C's isfinite (an IEEE 754 float is NaN or infinite exactly when its
- * exponent bits are all ones); the norm must have vg_row_norm's bits.
- * Every length 0..40 and 300 (the SIMD loop and its tail), extremes
- * (+-FLT_MAX, the smallest subnormal, -0) among the values, and a NaN
- * (quiet, signalling, negative, with a payload) or an infinity of either
- * sign at every position. */
 /* norm-3: rows as a binary file stores them, at any byte alignment:
- * vg_stored_norm_finite gives the aligned copy's vg_row_norm bit for bit,
+ * vg_row_norm_finite gives the aligned copy's vg_row_norm bit for bit,
  * and vg_row_copy_stream (streaming stores after a plain head up to a
  * 16-byte boundary) writes exactly memcpy's bytes and nothing around
  * them, for every source offset 0-15, target offset 0-3 floats and
@@ -492,7 +485,7 @@ static void test_stored_rows(void **state) {
         for (size_t so = 0; so < 16; so++) {
             memcpy(stored + so, want, n * sizeof(float));
             float norm = -1;
-            assert_int_equal(vg_stored_norm_finite(stored + so, n, &norm), 1);
+            assert_int_equal(vg_row_norm_finite(stored + so, n, &norm), 1);
             assert_memory_equal(&norm, &ref, sizeof norm);
             for (size_t d0 = 0; d0 < 4; d0++) {
                 memset(out, 0xa5, sizeof out);
@@ -509,6 +502,13 @@ static void test_stored_rows(void **state) {
     }
 }
 
+/* finite-1: the one-pass check and norm. The reference for "finite" is
+ * C's isfinite (an IEEE 754 float is NaN or infinite exactly when its
+ * exponent bits are all ones); the norm must have vg_row_norm's bits.
+ * Every length 0..40 and 300 (the SIMD loop and its tail), extremes
+ * (+-FLT_MAX, the smallest subnormal, -0) among the values, and a NaN
+ * (quiet, signalling, negative, with a payload) or an infinity of either
+ * sign at every position. */
 static void test_norm_finite(void **state) {
     (void)state;
     static const uint32_t bad_bits[] = {0x7fc00000u, 0x7f800001u, 0xffc00001u,
