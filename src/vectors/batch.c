@@ -149,8 +149,7 @@ static void convert_chunk(stage *s, size_t c, unsigned t) {
             check_copied(s, c, lo, hi, t);
             return;
         }
-    }
-    if (b->fill) {
+    } else if (b->fill) {
         vg_error e;
         vg_status st = b->fill(b->fill_ctx, rows[lo].file_row, hi - lo,
                                data + rows[lo].file_row * ld, &e);
@@ -158,8 +157,7 @@ static void convert_chunk(stage *s, size_t c, unsigned t) {
             fill_failed(s, c, lo, lo, hi, st, &e);
             return;
         }
-    }
-    if (b->stored_f32 && !b->fill) {
+    } else if (b->stored_f32) {
         /* Streaming stores, and the check from the stored bytes, which
          * the window read has just put in cache (2M x 300 binary,
          * unhashed: medians 0.54 s against 1.05 s, spread 0.52-0.55 s
@@ -173,7 +171,9 @@ static void convert_chunk(stage *s, size_t c, unsigned t) {
         vg_row_copy_fence();
         return;
     }
-    vg_convert_fn conv = b->fill ? NULL : b->conv;
+    /* The rows are in the matrix now (borrowed or filled), or are
+     * converted into it here. */
+    vg_convert_fn conv = b->in_matrix || b->fill ? NULL : b->conv;
     for (size_t i = lo; i < hi; i++) {
         vg_batch_row *r = &rows[i];
         float *dst = data + r->file_row * ld;
