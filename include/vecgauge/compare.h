@@ -123,7 +123,9 @@ typedef struct vg_comparison {
     size_t only_a, only_b;   /* analogy: questions only a / only b answered right */
     double p_mcnemar;        /* analogy: McNemar's exact p */
     const char *test;        /* the test behind p_value: "bootstrap",
-                                "steiger-z1", "mcnemar-exact" or "" (none) */
+                                "steiger-z1-bw" (Z1* with Spearman's
+                                variance; "steiger-z1" in files written
+                                before it), "mcnemar-exact" or "" (none) */
     double p_value;          /* that test's p (NaN when none is possible) */
     double p_holm;           /* Holm-adjusted over every row's p_value */
     int significant;         /* p_holm <= alpha */
@@ -184,16 +186,18 @@ typedef struct vg_comparisons {
  * the bootstrap distribution shifted to the null,
  *   p = (1 + #{r : |d*_r - d| >= |d|}) / (B' + 1),
  * B' the replicates with a defined difference (the +1 form of Davison and
- * Hinkley 1997, section 4.4). Steiger's (1980) Z1* (vg_paired_steiger_z,
- * pooled) tests the same difference analytically from rho_a, rho_b and
- * r_ab = Spearman's rho between the two sets' cosines; in as-is mode it
- * uses the items both sets cover.
+ * Hinkley 1997, section 4.4). Steiger's (1980) Z1* with the variance of
+ * Fisher's z of Spearman's rho (vg_paired_steiger_z_spearman) tests the
+ * same difference analytically from rho_a, rho_b and r_ab = Spearman's
+ * rho between the two sets' cosines; in as-is mode it uses the items
+ * both sets cover.
  * Analogy: accuracy per method (3CosAdd alone by default); McNemar's
  * exact test on the questions both sets answered, and the same paired
  * bootstrap of the accuracy difference (same streams).
  * The test behind p_value: in common mode Steiger's Z1* for similarity
  * (applied to Spearman's rho as is common practice, e.g. Rastogi, Van
- * Durme and Arora 2015; from memory) and McNemar for analogy, both
+ * Durme and Arora 2015, from memory; with Spearman's variance, since
+ * Pearson's makes it reject too often) and McNemar for analogy, both
  * analytic, so that Holm's adjustment over many suites and pairs is not
  * held back by the 1 / (B + 1) floor of a bootstrap p; in as-is mode the
  * bootstrap (Steiger and McNemar then cover other items than the scores).

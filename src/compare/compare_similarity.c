@@ -140,16 +140,17 @@ vg_status vg_cmp_similarity(vg_cmp_build *b, const vg_paired_items *in, size_t k
             rha = rho_where_both(s->rating, ca, n, cx, cy, work, &m2);
             rhb = rho_where_both(s->rating, cb, n, cx, cy, work, &m2);
         }
-        vg_test_result z = vg_paired_steiger_z(rha, rhb, row.r_ab, m, 1);
+        vg_test_result z = vg_paired_steiger_z_spearman(rha, rhb, row.r_ab, m);
         row.steiger_z = z.statistic;
         row.p_steiger = z.p_value;
-        /* The test: Steiger's Z1* on the common items (an analytic p,
+        /* The test: Steiger's Z1* with Spearman's variance of Fisher's z
+         * (Bonett and Wright 2000) on the common items (an analytic p,
          * so Holm over many suites and pairs is not limited by the
          * 1 / (B + 1) floor of a bootstrap p); in as-is mode the two
          * scores stand on different items and only the bootstrap tests
          * their difference. */
         if (!as_is) {
-            row.test = "steiger-z1";
+            row.test = "steiger-z1-bw";
             row.p_value = row.p_steiger;
         } else if (B > 0) {
             row.test = "bootstrap";

@@ -38,6 +38,7 @@ static const char *format_ci(const vg_comparison *r, char buf[80]) {
 
 static const char *test_name(const char *test) {
     if (strcmp(test, "bootstrap") == 0) return "paired bootstrap";
+    if (strcmp(test, "steiger-z1-bw") == 0) return "Steiger's Z1* (Spearman)";
     if (strcmp(test, "steiger-z1") == 0) return "Steiger's Z1*";
     if (strcmp(test, "mcnemar-exact") == 0) return "McNemar exact";
     return "none";
@@ -47,7 +48,8 @@ static const char *test_name(const char *test) {
 static const char *second_opinion(const vg_comparison *r, char buf[64]) {
     char p[32];
     buf[0] = '\0';
-    if (r->task == VG_TASK_SIMILARITY && strcmp(r->test, "steiger-z1") != 0 && !isnan(r->p_steiger))
+    if (r->task == VG_TASK_SIMILARITY && strncmp(r->test, "steiger-z1", 10) != 0 &&
+        !isnan(r->p_steiger))
         snprintf(buf, 64, "Steiger p %s", format_p(r->p_steiger, p));
     else if (r->task == VG_TASK_SIMILARITY && strcmp(r->test, "bootstrap") != 0 &&
              !isnan(r->p_bootstrap))
@@ -200,8 +202,9 @@ vg_status vg_report_comparison_md(const vg_comparisons *c, FILE *fp, const char 
     if (sim && !as_is)
         fputs("- Similarity: the test is Steiger's (1980) Z1* for two correlations sharing "
               "the human ratings (Fisher z, pooled r; r_ab = Spearman's rho between the two "
-              "sets' cosines), applied to Spearman's rho; the paired bootstrap gives the "
-              "interval and a second p-value, shown beside it.\n",
+              "sets' cosines), with the larger variance of Fisher's z of Spearman's rho, "
+              "(1 + r^2 / 2) / (n - 3) (Bonett and Wright 2000); the paired bootstrap gives "
+              "the interval and a second p-value, shown beside it.\n",
               fp);
     if (sim && as_is)
         fputs("- Similarity: the test is the paired bootstrap of the difference in "

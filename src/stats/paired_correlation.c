@@ -31,6 +31,18 @@ vg_test_result vg_paired_steiger_z(double r_ha, double r_hb, double r_ab, size_t
     return (vg_test_result){z, NAN, p > 1 ? 1 : p};
 }
 
+vg_test_result vg_paired_steiger_z_spearman(double r_ha, double r_hb, double r_ab, size_t n) {
+    vg_test_result t = vg_paired_steiger_z(r_ha, r_hb, r_ab, n, 1);
+    if (isnan(t.statistic)) return t;
+    /* Bonett and Wright's (2000) variance of Fisher's z of Spearman's rho,
+     * (1 + rho^2 / 2) / (n - 3), at the pooled estimate under the null:
+     * Z1*'s variance of the difference scaled by the same factor. */
+    double rbar = (r_ha + r_hb) / 2;
+    double z = t.statistic / sqrt(1 + rbar * rbar / 2);
+    double p = 2 * gsl_cdf_ugaussian_Q(fabs(z));
+    return (vg_test_result){z, NAN, p > 1 ? 1 : p};
+}
+
 vg_test_result vg_paired_williams_t(double r_ha, double r_hb, double r_ab, size_t n) {
     if (n < 4 || !usable(r_ha) || !usable(r_hb) || !usable(r_ab)) return undefined();
     vg_init();

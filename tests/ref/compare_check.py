@@ -23,7 +23,9 @@ For every row of COMPARISON_CSV:
   - the p-value of Hall and Wilson (1991) with the +1 correction of Davison
     and Hinkley (1997): (1 + #{|d* - d| >= |d|}) / (B' + 1) (from memory);
   - Steiger's (1980) Z1* (his eqs. 11 and 14, pooled r) from rho_a, rho_b
-    and r_ab = spearmanr(cos_a, cos_b), with scipy.stats.norm;
+    and r_ab = spearmanr(cos_a, cos_b), divided by sqrt(1 + r^2 / 2), the
+    variance factor of Fisher's z of Spearman's rho (Bonett and Wright 2000,
+    from memory), with scipy.stats.norm;
   - McNemar's exact p as scipy.stats.binomtest(min(b, c), b + c, 0.5);
   - Holm's adjustment and the rejections at ALPHA by
     statsmodels.stats.multitest.multipletests(method='holm').
@@ -88,6 +90,7 @@ def steiger(rha, rhb, rab, n):
     psi = rab * (1 - 2 * r * r) - 0.5 * r * r * (1 - 2 * r * r - rab * rab)
     c = psi / (1 - r * r) ** 2
     z = (math.atanh(rha) - math.atanh(rhb)) * math.sqrt(n - 3) / math.sqrt(2 - 2 * c)
+    z /= math.sqrt(1 + r * r / 2)
     return z, 2 * stats.norm.sf(abs(z))
 
 

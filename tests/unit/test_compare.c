@@ -132,9 +132,9 @@ static void test_similarity_steiger(void **state) {
         assert_close(r->score_a, rho[pa[i]], 1e-14, 0);
         assert_close(r->score_b, rho[pb[i]], 1e-14, 0);
         assert_close(r->r_ab, rab[i], 1e-14, 0);
-        vg_test_result z = vg_paired_steiger_z(rho[pa[i]], rho[pb[i]], rab[i], 10, 1);
+        vg_test_result z = vg_paired_steiger_z_spearman(rho[pa[i]], rho[pb[i]], rab[i], 10);
         assert_close(r->steiger_z, z.statistic, 1e-12, 0);
-        assert_string_equal(r->test, "steiger-z1");
+        assert_string_equal(r->test, "steiger-z1-bw");
         /* Holm: adjusted p at least the raw p; significant iff <= alpha. */
         assert_true(r->p_holm >= r->p_value);
         assert_int_equal(r->significant, r->p_holm <= 0.05);
