@@ -76,19 +76,23 @@ STATS_O   = stats/rank.o stats/correlation.o stats/kendall.o stats/interval.o \
 EVAL_O    = eval/results.o eval/evaluate.o eval/similarity_rows.o eval/agreement.o \
             eval/analogy_rows.o
 COMPARE_O = compare/compare.o compare/compare_similarity.o compare/compare_analogy.o \
-            compare/paired_items.o compare/saved_run.o compare/saved_pair.o compare/merge.o
+            compare/paired_items.o compare/saved_run.o compare/saved_pair.o compare/merge.o \
+            compare/saved_results.o
 REPORT_O  = report/csvout.o report/summary_md.o report/summary_similarity.o \
-            report/summary_analogy.o report/text_table.o report/rundir.o report/intervals.o \
+            report/summary_analogy.o report/text_table.o report/intervals.o \
             report/items_csv.o report/latex.o report/json_text.o report/run_json.o report/run_record.o
 REPORT_O += report/comparison_csv.o report/comparison_md.o report/comparison_json.o report/plot.o \
-            report/plot_compare.o report/plot_track.o report/history.o
-CLI_O     = cli/main.o cli/util.o cli/signals.o cli/run_output.o cli/cmd_score.o \
+            report/plot_compare.o
+RUNDIR_O  = rundir/rundir.o rundir/outdir.o rundir/cleanup.o rundir/plots.o rundir/provenance.o
+TRACK_O   = track/history.o track/select.o track/paths.o track/track.o track/track_report.o \
+            track/plot_track.o
+CLI_O     = cli/main.o cli/util.o cli/run_output.o cli/cmd_score.o \
             cli/cmd_rerun.o cli/cmd_suites.o cli/cmd_fetch.o cli/cmd_inspect.o \
             cli/loadopts.o cli/statopts.o cli/progress.o
 CLI_O    += cli/cmd_compare.o cli/cmd_track.o cli/cmd_merge.o
 
 LIB_O = $(addprefix $(BUILD)/obj/,$(COMMON_O) $(VECTORS_O) $(SUITES_O) $(FETCH_O) \
-          $(SCORE_O) $(STATS_O) $(EVAL_O) $(COMPARE_O) $(REPORT_O))
+          $(SCORE_O) $(STATS_O) $(EVAL_O) $(COMPARE_O) $(REPORT_O) $(RUNDIR_O) $(TRACK_O))
 BIN_O = $(addprefix $(BUILD)/obj/,$(CLI_O))
 
 LIB   = $(BUILD)/libvecgauge.a

@@ -1,5 +1,5 @@
 /* compare.h - is vector set A really better than B, and did this training
- * job make things worse? Comparisons item by item, saved runs, history.
+ * job make things worse? Comparisons item by item, and saved runs.
  * Part of vecgauge; MIT licence, see LICENSE.
  *
  * The engine (vg_compare) takes a plain table of paired items: for every
@@ -312,6 +312,15 @@ typedef struct vg_saved_run {
  * vg_saved_run_free. */
 VG_API vg_status vg_saved_run_load(const char *dir, vg_saved_run **out, vg_error *err);
 
+/* The run that reading back a run directory written from res would give
+ * (its items, cosines, answers and headline scores, which the files
+ * round-trip exactly), made in memory without reading any file; dir
+ * becomes its dir (where res was or will be written). utc_time and
+ * command_line are "". *out copies what it needs from res and is freed
+ * with vg_saved_run_free. VG_ENOMEM. */
+VG_API vg_status vg_saved_run_from_results(const vg_results *res, const char *dir,
+                                           vg_saved_run **out, vg_error *err);
+
 /* NULL does nothing. */
 VG_API void vg_saved_run_free(vg_saved_run *r);
 
@@ -370,68 +379,6 @@ VG_API vg_status vg_report_compare_summary_md(const vg_comparisons *c,
 VG_API vg_status vg_report_compare_json(const vg_comparisons *c, const vg_saved_run *const *runs,
                                         size_t n, const vg_provenance *prov, FILE *fp,
                                         const char *path, vg_error *err);
-
-/* ---- training history -------------------------------------------------- */
-
-/* One line of a history file: a set's headline score on a suite at a
- * step of training. */
-typedef struct vg_history_row {
-    uint64_t step;
-    const char *run;         /* the run directory, as recorded */
-    const char *vectors;
-    const char *suite;
-    vg_task task;
-    const char *metric;
-    double value, low, high;
-    const char *interval;
-    size_t n_items, n_used;
-    const char *recorded;    /* UTC time of the append */
-    uint64_t line;           /* line in the file (0 for a new row) */
-} vg_history_row;
-
-/* The header line of a history file, without the newline. */
-VG_API const char *vg_history_header(void);
-
-/* An open history, locked. */
-typedef struct vg_history {
-    char *path;
-    vg_history_row *rows;
-    size_t n_rows;
-    void *priv_;
-} vg_history;
-
-/* Open path for appending (created, with mode 0666 & ~umask, if absent),
- * take an exclusive flock(2) on it, waiting for other holders, and read
- * every row. Rows are checked: the header must be vg_history_header(),
- * every line complete, steps and counts whole numbers; VG_EFORMAT with
- * the line otherwise (the file is never repaired or rewritten). The lock
- * is held until vg_history_close. */
-VG_API vg_status vg_history_open(const char *path, vg_history **out, vg_error *err);
-
-/* Append rows (the header first when the file is empty) with one
- * write(2) on the O_APPEND descriptor, so a crash leaves either all of
- * them or none. VG_EIO when the write fails or is short. */
-VG_API vg_status vg_history_append(vg_history *h, const vg_history_row *rows, size_t n,
-                                   vg_error *err);
-
-/* Release the lock, close and free. NULL does nothing. */
-VG_API void vg_history_close(vg_history *h);
-
-/* One point of a suite's curve in a track plot. */
-typedef struct vg_track_point {
-    double step;
-    double value, low, high; /* low/high NaN: no band at that point */
-    int current;             /* the run just tracked */
-    int best;                /* the best earlier run (the reference) */
-    int regressed;           /* significantly below a reference */
-} vg_track_point;
-
-/* Plot a suite's score against step with the interval as a band, the
- * current run and the best earlier run marked; SVG and PNG as for
- * vg_plot_comparison. */
-VG_API vg_status vg_plot_track(const char *suite, const char *metric, const char *ylabel,
-                               const vg_track_point *pts, size_t n, const char *svg_path,
-                               const char *png_path, vg_error *err);
 
 #ifdef __cplusplus
 }

@@ -156,37 +156,6 @@ VG_API vg_status vg_run_record_read(const char *path, vg_run_record **out, vg_er
 /* NULL does nothing. */
 VG_API void vg_run_record_free(vg_run_record *rec);
 
-/* A run directory being built. */
-typedef struct vg_rundir vg_rundir;
-
-/* Start building the run directory final_path: creates a fresh temporary
- * directory beside it. Fails with VG_EIO if final_path already exists (a
- * run directory is never overwritten) or the temporary cannot be made.
- * On success *out owns the handle: finish with vg_rundir_commit or
- * vg_rundir_abort. */
-VG_API vg_status vg_rundir_begin(const char *final_path, vg_rundir **out,
-                                 vg_error *err);
-
-/* The path of a file name inside the temporary directory (valid until the
- * next call on rd). */
-VG_API const char *vg_rundir_file(vg_rundir *rd, const char *name);
-
-/* The temporary directory (for signal handlers that must remove it). */
-VG_API const char *vg_rundir_temp_path(const vg_rundir *rd);
-
-/* Rename the temporary directory to its final path and free rd. On
- * failure the temporary directory is removed, rd is freed, and VG_EIO is
- * returned. */
-VG_API vg_status vg_rundir_commit(vg_rundir *rd, vg_error *err);
-
-/* Remove the temporary directory and everything in it, and free rd. NULL
- * does nothing. */
-VG_API void vg_rundir_abort(vg_rundir *rd);
-
-/* Open name inside rd for writing; *fp receives the stream. */
-VG_API vg_status vg_rundir_open(vg_rundir *rd, const char *name, FILE **fp,
-                                vg_error *err);
-
 /* Flush and close fp, reporting a write error (disk full, ...) against
  * path. Always closes. */
 VG_API vg_status vg_report_close(FILE *fp, const char *path, vg_error *err);

@@ -11,7 +11,10 @@
  *   score.h    per-item scores of one vector set on one suite
  *   stats.h    correlations and intervals on plain arrays
  *   results.h  evaluate sets on suites: the table of scores
- *   report.h   write a run directory (CSV, Markdown, ...)
+ *   compare.h  paired comparisons of sets (in-process, or saved runs)
+ *   report.h   the files of a run directory (CSV, Markdown, ...)
+ *   rundir.h   output directories written whole; signals; provenance time
+ *   track.h    a training history: references, the regression verdict
  * error.h holds the status codes and the error record they all use.
  *
  * Threading: loaded vector sets, suites and results are immutable and may
@@ -32,6 +35,8 @@
 #include "report.h"
 #include "paired.h"
 #include "compare.h"
+#include "rundir.h"
+#include "track.h"
 
 #ifdef __cplusplus
 extern "C" {

@@ -7,7 +7,6 @@
 #ifndef VG_CLI_H
 #define VG_CLI_H
 
-#include <signal.h>
 #include <stddef.h>
 #include <stdint.h>
 
@@ -52,10 +51,6 @@ int vg_cli_vector_spec(const char *spec, char **label, char **path);
 
 /* The command line re-quoted for a shell, in one new string. */
 char *vg_cli_command_line(int argc, char **argv);
-
-/* Current UTC time as ISO 8601 ("2026-12-02T10:00:00Z") and as a
- * directory-friendly stamp ("20261202T100000Z"). */
-void vg_cli_utc_now(char iso[32], char stamp[32]);
 
 /* Progress of a load on standard error, drawn only when it is a terminal
  * (and enabled): pass vg_cli_progress_fn and the record as the load
@@ -145,17 +140,11 @@ char **vg_cli_plot_names(const vg_comparisons *cmp);
 void vg_cli_free_names(char **names);
 vg_status vg_cli_write_plots(vg_rundir *rd, const vg_comparisons *cmp, vg_error *err);
 
-/* A directory of output files written whole or not at all (run_output.c):
- * files in order, the plots (names as for the signal handler, drawn by
- * plots(rd, ctx)) just before the last file. Prints the error and
- * returns VG_EXIT_FAIL on failure. */
-typedef struct vg_cli_file {
-    const char *name;
-    vg_status (*fn)(void *ctx, FILE *fp, const char *path, vg_error *err);
-    void *ctx;
-} vg_cli_file;
-int vg_cli_write_dir(const char *dir, const vg_cli_file *files, size_t n, char **plot_names,
-                     vg_status (*plots)(vg_rundir *rd, void *ctx, vg_error *err), void *plot_ctx);
+/* A directory of output files written whole or not at all
+ * (vg_outdir_write); prints the error and returns VG_EXIT_FAIL on
+ * failure. */
+int vg_cli_write_dir(const char *dir, const vg_outdir_file *files, size_t n, char **plot_names,
+                     vg_outdir_plots plots, void *plot_ctx);
 
 /* Load the run directories named by argv[0..n) (printing the error and
  * returning NULL on failure); free with vg_cli_free_runs. With
@@ -167,21 +156,6 @@ void vg_cli_free_runs(vg_saved_run **runs, size_t n);
 /* Parse --methods: comma-separated analogy method names into a bit set.
  * 0 on success. */
 int vg_cli_parse_methods(const char *s, unsigned *out);
-
-/* SIGINT/SIGTERM handling (signals.c): install the handlers once; while a
- * run directory is written, register its temporary path and the file
- * names it can hold (a NULL-terminated array that stays unchanged while
- * registered; a name may be a subdirectory, listed after its files) so
- * that a signal removes them; NULL unregisters. vg_cli_interrupted() tells long work to
- * stop. */
-void vg_cli_install_signals(void);
-void vg_cli_set_cleanup(const char *temp_dir, const char *const *names);
-/* Hold SIGINT and SIGTERM back (the previous mask saved in *old) and let
- * them through again: around a step that creates what a cleanup must
- * then be registered for, a signal is delivered once it is. */
-void vg_cli_hold_signals(sigset_t *old);
-void vg_cli_release_signals(const sigset_t *old);
-int vg_cli_interrupted(void);
 
 /* The commands. Each gets argv starting at the command name. */
 int vg_cmd_score(int argc, char **argv);

@@ -276,7 +276,7 @@ int vg_cmd_compare(int argc, char **argv) {
     }
 
     char iso[32], stamp[32];
-    vg_cli_utc_now(iso, stamp);
+    vg_utc_now(iso, stamp);
     char outbuf[4096];
     if (!out) {
         if (mkdir("results", 0777) != 0 && errno != EEXIST) {
@@ -297,7 +297,7 @@ int vg_cmd_compare(int argc, char **argv) {
                           .argc = (size_t)vg_cli_argc,
                           .cwd = cwd};
     compare_ctx ctx = {cmp, runs, n, &prov};
-    const vg_cli_file files[] = {{"comparison.csv", f_comparison, &ctx},
+    const vg_outdir_file files[] = {{"comparison.csv", f_comparison, &ctx},
                                  {"ranking.csv", f_ranking, &ctx},
                                  {"summary.md", f_summary, &ctx},
                                  {"compare.json", f_json, &ctx}};

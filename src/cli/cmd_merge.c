@@ -101,7 +101,7 @@ int vg_cmd_merge(int argc, char **argv) {
         goto done;
     }
     char iso[32], stamp[32];
-    vg_cli_utc_now(iso, stamp);
+    vg_utc_now(iso, stamp);
     cmdline = vg_cli_command_line(vg_cli_argc, vg_cli_argv);
     char cwd[4096];
     if (!getcwd(cwd, sizeof cwd)) cwd[0] = '\0';
@@ -116,7 +116,7 @@ int vg_cmd_merge(int argc, char **argv) {
                           .settings = settings,
                           .n_settings = 1};
     merge_ctx ctx = {runs, n, &prov};
-    const vg_cli_file files[] = {{"scores.csv", f_scores, &ctx},   {"intervals.csv", f_intervals, &ctx},
+    const vg_outdir_file files[] = {{"scores.csv", f_scores, &ctx},   {"intervals.csv", f_intervals, &ctx},
                                  {"agreement.csv", f_agreement, &ctx}, {"items.csv", f_items, &ctx},
                                  {"missing.csv", f_missing, &ctx}, {"summary.md", f_summary, &ctx},
                                  {"run.json", f_json, &ctx}};

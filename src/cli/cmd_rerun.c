@@ -123,7 +123,7 @@ int vg_cmd_rerun(int argc, char **argv) {
         goto done;
     }
     if (!out) {
-        vg_cli_utc_now(iso, stamp);
+        vg_utc_now(iso, stamp);
         snprintf(outbuf, sizeof outbuf, "%s/results/%s-rerun", here, stamp);
     } else if (out[0] != '/') {
         snprintf(outbuf, sizeof outbuf, "%s/%s", here, out);

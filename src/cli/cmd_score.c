@@ -444,7 +444,7 @@ int vg_cmd_score(int argc, char **argv) {
     }
 
     char iso[32], stamp[32];
-    vg_cli_utc_now(iso, stamp);
+    vg_utc_now(iso, stamp);
     char outbuf[4096];
     const char *out = a.out;
     if (!out) {

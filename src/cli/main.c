@@ -79,7 +79,7 @@ int main(int argc, char **argv) {
     vg_blas_park_workers();
     vg_cli_argc = argc;
     vg_cli_argv = argv;
-    vg_cli_install_signals();
+    vg_rundir_handle_signals();
     if (argc < 2) {
         main_help(stderr);
         return VG_EXIT_USAGE;

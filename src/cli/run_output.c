@@ -4,7 +4,6 @@
 #include <stdio.h>
 #include <stdlib.h>
 #include <string.h>
-#include <unistd.h>
 
 #include "cli.h"
 
@@ -87,7 +86,7 @@ static const struct {
 
 #define N_RUN_FILES (sizeof run_files / sizeof run_files[0])
 
-/* One run file as a vg_cli_file: its writer and what it writes from. */
+/* One run file as a vg_outdir_file: its writer and what it writes from. */
 typedef struct run_file_ctx {
     writer_fn fn;
     const vg_results *res;
@@ -116,12 +115,12 @@ int vg_cli_write_run_compared(const char *dir, const vg_results *res, const vg_c
         return VG_EXIT_FAIL;
     }
     run_file_ctx ctx[N_RUN_FILES];
-    vg_cli_file files[N_RUN_FILES];
+    vg_outdir_file files[N_RUN_FILES];
     size_t n = 0;
     for (size_t i = 0; i < N_RUN_FILES; i++) {
         if (run_files[i].compared && !cmp) continue;
         ctx[n] = (run_file_ctx){run_files[i].fn, res, prov};
-        files[n] = (vg_cli_file){run_files[i].name, call_writer, &ctx[n]};
+        files[n] = (vg_outdir_file){run_files[i].name, call_writer, &ctx[n]};
         n++;
     }
     run_cmp = cmp;
@@ -133,58 +132,14 @@ int vg_cli_write_run_compared(const char *dir, const vg_results *res, const vg_c
 
 /* ---- any directory of output files -------------------------------------- */
 
-int vg_cli_write_dir(const char *dir, const vg_cli_file *files, size_t n, char **plot_names,
-                     vg_status (*plots)(vg_rundir *rd, void *ctx, vg_error *err), void *plot_ctx) {
+int vg_cli_write_dir(const char *dir, const vg_outdir_file *files, size_t n, char **plot_names,
+                     vg_outdir_plots plots, void *plot_ctx) {
     vg_error err;
     vg_error_clear(&err);
-    size_t n_plots = 0;
-    while (plot_names && plot_names[n_plots]) n_plots++;
-    const char **names = calloc(n + n_plots + 1, sizeof *names);
-    if (!names) {
-        vg_cli_fail("out of memory");
-        return VG_EXIT_FAIL;
-    }
-    for (size_t i = 0; i < n; i++) names[i] = files[i].name;
-    for (size_t i = 0; i < n_plots; i++) names[n + i] = plot_names[i];
-    vg_rundir *rd = NULL;
-    /* The temporary directory exists from vg_rundir_begin on: a signal
-     * before its cleanup is registered would leave it behind (seen once
-     * in the SIGTERM test under a loaded CI run), so signals wait until
-     * then. The test hook pauses between the steps, first inside that
-     * window, so that the tests' interrupts land there as well as later. */
-    const char *slow = getenv("VECGAUGE_TEST_SLOW_WRITE");
-    int pause = slow && *slow == '1';
-    sigset_t old;
-    vg_cli_hold_signals(&old);
-    vg_status st = vg_rundir_begin(dir, &rd, &err);
-    if (pause && st == VG_OK) usleep(200000);
-    vg_cli_set_cleanup(rd ? vg_rundir_temp_path(rd) : NULL, names);
-    vg_cli_release_signals(&old);
-    for (size_t i = 0; st == VG_OK && i < n; i++) {
-        if (plots && i + 1 == n) {
-            if (pause) usleep(200000);
-            if ((st = plots(rd, plot_ctx, &err)) != VG_OK) break;
-        }
-        if (pause) usleep(200000);
-        FILE *fp = NULL;
-        if ((st = vg_rundir_open(rd, files[i].name, &fp, &err)) != VG_OK) break;
-        const char *path = vg_rundir_file(rd, files[i].name);
-        st = files[i].fn(files[i].ctx, fp, path, &err);
-        vg_status c = vg_report_close(fp, path, &err);
-        if (st == VG_OK) st = c;
-    }
-    if (st == VG_OK && vg_cli_interrupted())
-        st = vg_error_set(&err, VG_EINTERRUPTED, dir, 0, "interrupted; nothing was written");
-    if (st == VG_OK)
-        st = vg_rundir_commit(rd, &err);
-    else
-        vg_rundir_abort(rd);
-    vg_cli_set_cleanup(NULL, NULL);
-    free(names);
-    if (st != VG_OK) {
+    if (vg_outdir_write(dir, files, n, (const char *const *)plot_names, plots, plot_ctx, &err) !=
+        VG_OK) {
         vg_cli_error(&err);
         return VG_EXIT_FAIL;
     }
     return VG_EXIT_OK;
 }
-

@@ -7,7 +7,6 @@
 #include <stdio.h>
 #include <stdlib.h>
 #include <string.h>
-#include <time.h>
 
 #include "cli.h"
 #include "vg_gitdesc.h"
@@ -128,19 +127,4 @@ char *vg_cli_command_line(int argc, char **argv) {
     }
     s[off] = '\0';
     return s;
-}
-
-void vg_cli_utc_now(char iso[32], char stamp[32]) {
-    time_t t = time(NULL);
-    /* SOURCE_DATE_EPOCH (reproducible-builds.org) pins the time, so that
-     * tests and the committed demo example can compare whole files. */
-    const char *sde = getenv("SOURCE_DATE_EPOCH");
-    if (sde && *sde) {
-        uint64_t v;
-        if (vg_cli_parse_u64(sde, 0, (uint64_t)1 << 40, &v) == 0) t = (time_t)v;
-    }
-    struct tm tm;
-    gmtime_r(&t, &tm);
-    strftime(iso, 32, "%Y-%m-%dT%H:%M:%SZ", &tm);
-    strftime(stamp, 32, "%Y%m%dT%H%M%SZ", &tm);
 }

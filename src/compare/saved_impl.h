@@ -10,6 +10,20 @@
 #include "../common/internal.h"
 #include "vecgauge/compare.h"
 
+/* What a vg_saved_run keeps behind its public fields (r->priv_). */
+typedef struct saved_priv {
+    vg_csv_table *items;
+    vg_csv_table *scores;
+    vg_csv_table *intervals;
+    vg_csv_table *agreement;
+    vg_csv_table *missing;
+    json_t *json;
+    char **original;     /* the labels as in the run's files */
+    char **words;        /* a run made from results: per suite, the block
+                            its words point into (the tables' fields
+                            otherwise) */
+} saved_priv;
+
 /* run.json as read (owned by r). */
 VG_INTERNAL json_t *vg_saved_json(const vg_saved_run *r);
 
@@ -20,6 +34,11 @@ VG_INTERNAL vg_csv_table *vg_saved_table(const vg_saved_run *r, const char *name
 /* The set whose label in the run's own files is label (before any
  * relabelling), or -1. */
 VG_INTERNAL long vg_saved_original_set(const vg_saved_run *r, const char *label);
+
+/* The headline score of block b (set * n_suites + suite) of an analogy
+ * suite without a 3cosadd row: 3CosAdd's accuracy over the questions
+ * answered, from the items, without interval. */
+VG_INTERNAL void vg_saved_answered_accuracy(vg_saved_run *r, size_t b);
 
 /* dir/name in a new string (vg_free), or NULL. */
 VG_INTERNAL char *vg_saved_path(const char *dir, const char *name);

@@ -21,16 +21,6 @@
 /* Largest items.csv or scores.csv read (a sanity bound, not a promise). */
 #define MAX_TABLE_BYTES ((size_t)4 << 30)
 
-typedef struct saved_priv {
-    vg_csv_table *items;
-    vg_csv_table *scores;
-    vg_csv_table *intervals;
-    vg_csv_table *agreement;
-    vg_csv_table *missing;
-    json_t *json;
-    char **original;     /* the labels as in the run's files */
-} saved_priv;
-
 json_t *vg_saved_json(const vg_saved_run *r) { return ((saved_priv *)r->priv_)->json; }
 
 long vg_saved_original_set(const vg_saved_run *r, const char *label) {
@@ -83,6 +73,8 @@ void vg_saved_run_free(vg_saved_run *r) {
         if (p->json) json_decref(p->json);
         for (size_t i = 0; p->original && i < r->n_sets; i++) vg_free(p->original[i]);
         vg_free(p->original);
+        for (size_t k = 0; p->words && k < r->n_suites; k++) vg_free(p->words[k]);
+        vg_free(p->words);
         vg_free(p);
     }
     vg_free(r);
@@ -399,6 +391,20 @@ done:
     return st;
 }
 
+void vg_saved_answered_accuracy(vg_saved_run *r, size_t b) {
+    const vg_saved_suite *s = &r->suites[b % r->n_suites];
+    vg_saved_score *sc = &r->scores[b];
+    const signed char *c = r->correct[b * VG_METHOD_COUNT + VG_METHOD_3COSADD];
+    size_t right = 0, used = 0;
+    for (size_t i = 0; c && i < s->n_items; i++)
+        if (c[i] >= 0) {
+            used++;
+            right += c[i] == 1;
+        }
+    sc->value = used ? (double)right / (double)used : NAN;
+    sc->n_used = used;
+}
+
 /* scores.csv: the headline score of each set on each suite. */
 static vg_status read_scores(vg_saved_run *r, vg_error *err) {
     saved_priv *p = r->priv_;
@@ -453,17 +459,8 @@ static vg_status read_scores(vg_saved_run *r, vg_error *err) {
                               r->labels[b / r->n_suites], s->id);
             break;
         }
-        /* No 3cosadd row (a run written before analogy rows existed): the
-         * accuracy over the answered questions, from items.csv. */
-        const signed char *c = r->correct[b * VG_METHOD_COUNT + VG_METHOD_3COSADD];
-        size_t right = 0, used = 0;
-        for (size_t i = 0; c && i < s->n_items; i++)
-            if (c[i] >= 0) {
-                used++;
-                right += c[i] == 1;
-            }
-        sc->value = used ? (double)right / (double)used : NAN;
-        sc->n_used = used;
+        /* No 3cosadd row (a run written before analogy rows existed). */
+        vg_saved_answered_accuracy(r, b);
     }
     vg_free(found);
     return st;

@@ -155,4 +155,25 @@ for sig in INT TERM; do
     check "trk-11 ($sig): interrupted under the lock: killed (status $st), history unchanged" \
         bash -c "test $st -ge 128 && cmp -s '$W/rep.csv' '$W/rep-before.csv'"
 done
+
+# trk-12 (issue 25): with steps 10 to 60 in a history and the best score
+# at step 40, a run tracked as step 25 is compared with step 20 (the
+# previous run) and with the best of steps 10 and 20 only: never with a
+# later step.
+for i in 1 2 3 4 5 6; do
+    "$VG_BIN" track --history "$W/gaps.csv" --step "${i}0" --no-plots "$W/ckpt$i" > /dev/null 2>&1
+done
+cp -r "$W/ckpt3" "$W/ckpt3b"
+expect_status "trk-12: a step between the history's steps" 0 \
+    "$VG_BIN" track --history "$W/gaps.csv" --step 25 --no-plots "$W/ckpt3b"
+expect_in "trk-12b: compared with the previous run, step 20" "step 25  step 20" "$TMP/out"
+check "trk-12c: and with no later step (30 to 60)" bash -c "! grep -qE 'step 25  step [3-6]0' '$TMP/out'"
+
+# trk-13: a step already in the history is refused (usage error, named),
+# and nothing is appended.
+cp "$W/gaps.csv" "$W/gaps.before"
+expect_status "trk-13: --step 40 again is refused" 2 \
+    "$VG_BIN" track --history "$W/gaps.csv" --step 40 --no-plots "$W/ckpt3b"
+expect_in "trk-13b: saying why" "step 40 is already in" "$TMP/err"
+check "trk-13c: the history is unchanged" cmp "$W/gaps.csv" "$W/gaps.before"
 done_testing

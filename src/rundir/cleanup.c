@@ -1,19 +1,21 @@
-/* signals.c - SIGINT and SIGTERM leave no partial run directory.
+/* cleanup.c - SIGINT and SIGTERM leave no partial output directory.
  * Part of vecgauge; MIT licence, see LICENSE.
  *
- * While a run directory is being written its temporary path is
- * registered here. A first signal removes that temporary directory's
- * files (with async-signal-safe calls only: the directory holds only the
- * regular files and subdirectories we name) and exits with 128 + the signal number, as a
- * shell would report it. Outside that window the signal just sets a flag
- * that long-running work polls, and the default action follows.
+ * While an output directory (or a plot beside a history) is being
+ * written, its temporary path is registered here. With the handlers
+ * installed (vg_rundir_handle_signals), a first signal removes that
+ * temporary directory's files (with async-signal-safe calls only: the
+ * directory holds only the regular files and subdirectories we name) and
+ * exits with 128 + the signal number, as a shell would report it. Outside
+ * that window the signal just sets a flag that long-running work polls,
+ * and the default action follows.
  */
 #include <fcntl.h>
 #include <signal.h>
 #include <string.h>
 #include <unistd.h>
 
-#include "cli.h"
+#include "rundir_impl.h"
 
 static volatile sig_atomic_t got_signal;
 static char cleanup_dir[4096];
@@ -51,7 +53,7 @@ static void on_signal(int sig) {
     raise(sig);
 }
 
-void vg_cli_install_signals(void) {
+void vg_rundir_handle_signals(void) {
     struct sigaction sa;
     memset(&sa, 0, sizeof sa);
     sa.sa_handler = on_signal;
@@ -60,21 +62,21 @@ void vg_cli_install_signals(void) {
     sigaction(SIGTERM, &sa, NULL);
 }
 
-void vg_cli_hold_signals(sigset_t *old) {
+void vg_cleanup_hold(sigset_t *old) {
     sigset_t block;
     sigemptyset(&block);
     sigaddset(&block, SIGINT);
     sigaddset(&block, SIGTERM);
-    sigprocmask(SIG_BLOCK, &block, old);
+    pthread_sigmask(SIG_BLOCK, &block, old);
 }
 
-void vg_cli_release_signals(const sigset_t *old) { sigprocmask(SIG_SETMASK, old, NULL); }
+void vg_cleanup_release(const sigset_t *old) { pthread_sigmask(SIG_SETMASK, old, NULL); }
 
-void vg_cli_set_cleanup(const char *temp_dir, const char *const *names) {
+void vg_cleanup_set(const char *temp_dir, const char *const *names) {
     /* Block the signals while the path changes so that the handler never
      * sees a half-copied path. */
     sigset_t old;
-    vg_cli_hold_signals(&old);
+    vg_cleanup_hold(&old);
     if (temp_dir && strlen(temp_dir) < sizeof cleanup_dir) {
         memcpy(cleanup_dir, temp_dir, strlen(temp_dir) + 1);
         run_names = names;
@@ -82,7 +84,7 @@ void vg_cli_set_cleanup(const char *temp_dir, const char *const *names) {
     } else {
         cleanup_set = 0;
     }
-    vg_cli_release_signals(&old);
+    vg_cleanup_release(&old);
 }
 
-int vg_cli_interrupted(void) { return got_signal != 0; }
+int vg_interrupted(void) { return got_signal != 0; }

@@ -6,8 +6,8 @@
 #include <string.h>
 
 #include "../common/alloc.h"
-#include "plot_impl.h"
-#include "vecgauge/compare.h"
+#include "../report/plot_impl.h"
+#include "vecgauge/track.h"
 
 #define W 860.0
 #define H 470.0

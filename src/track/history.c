@@ -22,7 +22,7 @@
 #include "../common/alloc.h"
 #include "../common/csvread.h"
 #include "../common/numfmt.h"
-#include "vecgauge/compare.h"
+#include "vecgauge/track.h"
 
 static const char history_header[] =
     "step,run,vectors,suite,task,metric,value,ci_low,ci_high,ci_method,n_items,n_used,"

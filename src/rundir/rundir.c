@@ -1,4 +1,4 @@
-/* rundir.c - run directories that appear complete or not at all.
+/* rundir.c - output directories that appear complete or not at all.
  * Part of vecgauge; MIT licence, see LICENSE.
  *
  * Files are written into ".<name>.tmp-XXXXXX" beside the final path, which
@@ -14,7 +14,7 @@
 #include <unistd.h>
 
 #include "../common/alloc.h"
-#include "vecgauge/report.h"
+#include "vecgauge/rundir.h"
 
 struct vg_rundir {
     char *final_path;
