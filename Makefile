@@ -61,7 +61,7 @@ $(shell mkdir -p $(BUILD)/gen; t=$(GITDESC_H).new.$$$$; \
 COMMON_O  = common/error.o common/alloc.o common/arena.o common/strmap.o \
             common/text.o common/lines.o common/sha256.o common/threads.o \
             common/numfmt.o common/version.o common/csvread.o common/bigbuf.o \
-            common/filemap.o common/blas_pool.o
+            common/filemap.o common/blas_pool.o common/infile.o
 VECTORS_O = vectors/vectors.o vectors/load.o vectors/detect.o vectors/source.o \
             vectors/gzip.o vectors/fastfloat.o vectors/text.o vectors/binary.o \
             vectors/npy.o vectors/vocab.o vectors/batch.o

@@ -68,8 +68,16 @@ VG_API vg_status vg_error_set(vg_error *err, vg_status code, const char *path,
 VG_API void vg_error_prefix(vg_error *err, const char *fmt, ...) VG_PRINTF(2, 3);
 
 /* Write "path:line:column: message" (parts that are absent are left out)
- * into buf, always NUL-terminated. Returns buf. */
+ * into buf, always NUL-terminated, escaped as vg_escape_text does (a word
+ * or path from a hostile file cannot drive the terminal). Returns buf. */
 VG_API char *vg_error_format(const vg_error *err, char *buf, size_t size);
+
+/* Copy s into buf (size bytes, always NUL-terminated, cut short if need
+ * be) with every byte a terminal could act on written as an escape: C0
+ * control characters ("\n", "\t", "\x1b"), DEL, the C1 controls
+ * U+0080..U+009F and bytes that are not part of valid UTF-8 as "\xNN".
+ * Printable UTF-8 is copied as it is. Returns buf. */
+VG_API char *vg_escape_text(const char *s, char *buf, size_t size);
 
 /* A short stable name for a status, e.g. "format" for VG_EFORMAT. Never NULL. */
 VG_API const char *vg_status_name(vg_status code);

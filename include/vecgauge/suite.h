@@ -105,6 +105,14 @@ typedef struct vg_pairs_layout {
 
 VG_API void vg_pairs_layout_init(vg_pairs_layout *layout);
 
+/* The largest size a suite file may have once decompressed (gzip is
+ * undone as it is read): a larger one is VG_ELIMIT naming the file, read
+ * no further. Process-wide, for every later read of a suite file (pairs,
+ * analogies, relation files, split files); 0 restores the default,
+ * VG_MAX_SUITE_BYTES. Thread-safe. */
+VG_API void vg_suite_set_max_bytes(uint64_t n);
+VG_API uint64_t vg_suite_max_bytes(void);
+
 /* Read a word-pair file (path may be gzip-compressed). layout may be NULL
  * to detect everything. id names the suite ("" or NULL: the file name).
  * On success *out owns a new suite (free with vg_suite_free). On failure

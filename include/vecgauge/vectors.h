@@ -69,9 +69,15 @@ typedef struct vg_load_options {
     int fold_case;           /* also build the case-folded index */
     vg_progress_fn progress; /* NULL: no progress reports */
     void *progress_ctx;
+    /* A gzip file may inflate to at most this many times the stored bytes
+     * read so far (and always to VG_INFLATE_FLOOR); more is VG_ELIMIT
+     * naming the file, read no further. Default VG_MAX_INFLATE; 0: no
+     * bound. */
+    unsigned max_inflate;
 } vg_load_options;
 
-/* Fill *opt with the defaults: auto layout, all rows, hash on, no filter. */
+/* Fill *opt with the defaults: auto layout, all rows, hash on, no filter,
+ * inflation bounded by VG_MAX_INFLATE. */
 VG_API void vg_load_options_init(vg_load_options *opt);
 
 /* What the loader saw. Counts refer to the rows read from the file. */

@@ -72,6 +72,25 @@
 #define VG_MAX_WORD 4096u
 #endif
 
+/* Largest size a suite file (word pairs, analogies, a relation file) may
+ * have once decompressed, by default (vg_suite_set_max_bytes changes it).
+ * The largest public suite file is under 1 MB; a 1.5 MB gzip file can
+ * inflate to gigabytes of pairs, each held in memory. */
+#ifndef VG_MAX_SUITE_BYTES
+#define VG_MAX_SUITE_BYTES (64u * 1024u * 1024u)
+#endif
+
+/* A gzip vector file may inflate to this many times its stored size (or
+ * to VG_INFLATE_FLOOR, whichever is larger) by default; the loader's
+ * max_inflate option changes it. Real vector files compress three to
+ * five times; a file made to inflate 1000 times is a bomb. */
+#ifndef VG_MAX_INFLATE
+#define VG_MAX_INFLATE 64u
+#endif
+#ifndef VG_INFLATE_FLOOR
+#define VG_INFLATE_FLOOR (256ull * 1024u * 1024u)
+#endif
+
 /* Largest dimension accepted in a vector file header. */
 #ifndef VG_MAX_DIMS
 #define VG_MAX_DIMS 100000u

@@ -34,8 +34,11 @@ extern char **vg_cli_argv;
 /* "vecgauge: <formatted error>" on stderr. */
 void vg_cli_error(const vg_error *err);
 
-/* "vecgauge: <message>" on stderr. */
+/* "vecgauge: <message>" on stderr, escaped (vg_escape_text): an error. */
 void vg_cli_fail(const char *fmt, ...) VG_PRINTF(1, 2);
+/* The same for a note or warning (write "warning: ..." in fmt). Every
+ * message of the tool goes through these or vg_cli_error. */
+void vg_cli_note(const char *fmt, ...) VG_PRINTF(1, 2);
 
 /* Print "vecgauge COMMAND: message" and a pointer to --help; returns
  * VG_EXIT_USAGE. */
@@ -56,7 +59,7 @@ char *vg_cli_command_line(int argc, char **argv);
  * (and enabled): pass vg_cli_progress_fn and the record as the load
  * options' progress callback and context. */
 typedef struct vg_cli_progress {
-    const char *label;
+    char label[1024];   /* escaped (vg_escape_text) */
     int enabled, drawn;
     double t0, last;
 } vg_cli_progress;
@@ -74,7 +77,8 @@ enum {
     VG_OPT_ALLOW_SHORT,
     VG_OPT_SKIP_BAD,
     VG_OPT_NO_HASH,
-    VG_OPT_NO_PROGRESS
+    VG_OPT_NO_PROGRESS,
+    VG_OPT_MAX_INFLATE
 };
 #define VG_CLI_LOAD_LONG_OPTIONS                                   \
     {"format", required_argument, NULL, VG_OPT_FORMAT},            \
@@ -83,7 +87,8 @@ enum {
     {"allow-short", no_argument, NULL, VG_OPT_ALLOW_SHORT},        \
     {"skip-bad-rows", no_argument, NULL, VG_OPT_SKIP_BAD},         \
     {"no-hash", no_argument, NULL, VG_OPT_NO_HASH},                \
-    {"no-progress", no_argument, NULL, VG_OPT_NO_PROGRESS}
+    {"no-progress", no_argument, NULL, VG_OPT_NO_PROGRESS},        \
+    {"max-inflate", required_argument, NULL, VG_OPT_MAX_INFLATE}
 /* Their help, one "Vector files:" section. */
 extern const char vg_cli_load_help[];
 /* Apply option c (argument arg) to *lo (or *progress). Returns 1 when c

@@ -260,15 +260,15 @@ int vg_cmd_compare(int argc, char **argv) {
     for (size_t q = 1; q < n; q++)
         if ((!so.have_seed && runs[q]->seed != o.seed) || (!so.have_boot && runs[q]->bootstrap != o.replicates) ||
             (!so.have_ci && runs[q]->level != o.level)) {
-            fprintf(stderr, "%s: warning: %s was run with other bootstrap settings than %s; "
-                    "comparing with those of %s (seed %llu, %zu replicates, level %g)\n",
-                    vg_cli_progname, runs[q]->dir, runs[0]->dir, runs[0]->dir,
-                    (unsigned long long)o.seed, o.replicates, o.level);
+            vg_cli_note("warning: %s was run with other bootstrap settings than %s; "
+                        "comparing with those of %s (seed %llu, %zu replicates, level %g)",
+                        runs[q]->dir, runs[0]->dir, runs[0]->dir, (unsigned long long)o.seed,
+                        o.replicates, o.level);
             break;
         }
     if (o.items == VG_COMPARE_AS_IS)
-        fprintf(stderr, "%s: warning: --no-common: each set is compared on the items it covers; "
-                "differences mix vector quality with coverage\n", vg_cli_progname);
+        vg_cli_note("warning: --no-common: each set is compared on the items it covers; "
+                    "differences mix vector quality with coverage");
     if (vg_saved_runs_pair((const vg_saved_run *const *)runs, n, 1, &items, &err) != VG_OK ||
         vg_compare(items, &o, &cmp, &err) != VG_OK) {
         vg_cli_error(&err);
@@ -311,7 +311,7 @@ int vg_cmd_compare(int argc, char **argv) {
             vg_cli_error(&err);
             rc = VG_EXIT_FAIL;
         }
-        fprintf(stderr, "%s: comparison directory: %s\n", vg_cli_progname, out);
+        vg_cli_note("comparison directory: %s", out);
     }
 done:
     vg_cli_free_names(plot_names);

@@ -43,7 +43,7 @@ static const struct option long_opts[] = {
 
 static void print_note(void *ctx, const char *msg) {
     (void)ctx;
-    fprintf(stderr, "%s: note: %s\n", vg_cli_progname, msg);
+    vg_cli_note("note: %s", msg);
 }
 
 static int any_url(const vg_suite_entry *e) {
@@ -63,17 +63,15 @@ static void by_hand(const vg_suite_entry *e, const char *data) {
         char path[4096];
         vg_suite_entry_path(e, v, f, data, path, sizeof path, NULL);
         if (*var->url && *var->members[f])
-            fprintf(stderr, "%s: by hand: download %s, take %s out of it and put it at %s\n",
-                    vg_cli_progname, var->url, var->members[f], path);
+            vg_cli_note("by hand: download %s, take %s out of it and put it at %s", var->url,
+                        var->members[f], path);
         else if (*var->url)
-            fprintf(stderr, "%s: by hand: download %s and put it at %s\n", vg_cli_progname,
-                    var->url, path);
+            vg_cli_note("by hand: download %s and put it at %s", var->url, path);
         else
-            fprintf(stderr, "%s: by hand: put %s at %s\n", vg_cli_progname, var->files[f], path);
+            vg_cli_note("by hand: put %s at %s", var->files[f], path);
     }
     if (e->n_variants > 1)
-        fprintf(stderr, "%s: ('vecgauge suites %s' lists the other known copies)\n",
-                vg_cli_progname, e->id);
+        vg_cli_note("('vecgauge suites %s' lists the other known copies)", e->id);
 }
 
 static int fetch_one(const vg_suite_entry *e, const vg_fetch_options *opt) {
@@ -81,9 +79,8 @@ static int fetch_one(const vg_suite_entry *e, const vg_fetch_options *opt) {
     vg_error err;
     vg_error_clear(&err);
     if (vg_fetch_suite(e, opt, &res, &err) != VG_OK) {
-        char buf[VG_ERROR_PATH_MAX + VG_ERROR_MSG_MAX + 64];
-        fprintf(stderr, "%s: fetch %s: %s\n", vg_cli_progname, e->id,
-                vg_error_format(&err, buf, sizeof buf));
+        char buf[4 * (VG_ERROR_PATH_MAX + VG_ERROR_MSG_MAX) + 64];
+        vg_cli_note("fetch %s: %s", e->id, vg_error_format(&err, buf, sizeof buf));
         if (err.code != VG_EHASH || !opt->force) by_hand(e, opt->data_dir);
         return VG_EXIT_FAIL;
     }
@@ -161,13 +158,11 @@ int vg_cmd_fetch(int argc, char **argv) {
         if (!named && !all) continue;
         if (!named && !any_url(e)) {
             /* 'all' covers what can be downloaded; say what cannot. */
-            fprintf(stderr, "%s: note: %s has no known download address; skipped\n",
-                    vg_cli_progname, e->id);
+            vg_cli_note("note: %s has no known download address; skipped", e->id);
             continue;
         }
         if (fetch_one(e, &opt) != VG_EXIT_OK) rc = VG_EXIT_FAIL;
     }
-    if (fflush(stdout) != 0) rc = VG_EXIT_FAIL;
     vg_manifest_free(m);
     return rc;
 }

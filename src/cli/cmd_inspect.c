@@ -98,14 +98,14 @@ static int print_json(const char *path, const vg_vectors_info *in, double nmin, 
 
 static void print_text(const char *path, const vg_vectors_info *in, double nmin, double nmed,
                        double nmax) {
-    char lay[64];
-    printf("%s\n", path);
+    char lay[64], safe[4096];
+    printf("%s\n", vg_escape_text(path, safe, sizeof safe));
     printf("  layout:              %s\n", layout_label(in, lay, sizeof lay));
     printf("  detected:            %s\n", in->detected_because);
     if (in->layout == VG_LAYOUT_NPY) {
         printf("  matrix:              %s, %s, %s order\n", in->source_float64 ? "float64" : "float32",
                in->big_endian ? "big-endian" : "little-endian", in->fortran_order ? "Fortran" : "C");
-        printf("  vocabulary:          %s\n", in->vocab_path);
+        printf("  vocabulary:          %s\n", vg_escape_text(in->vocab_path, safe, sizeof safe));
     }
     printf("  rows:                %zu", in->rows);
     if (in->rows_read != in->rows) printf(" kept of %zu read", in->rows_read);
@@ -191,9 +191,5 @@ int vg_cmd_inspect(int argc, char **argv) {
         }
         vg_vectors_free(v);
     }
-    if (fflush(stdout) != 0) {
-        vg_cli_fail("cannot write to standard output");
-        rc = VG_EXIT_FAIL;
-    }
-    return rc;
+    return rc; /* main checks standard output */
 }

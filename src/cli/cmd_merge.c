@@ -96,8 +96,7 @@ int vg_cmd_merge(int argc, char **argv) {
     if (vg_saved_runs_pair((const vg_saved_run *const *)runs, n, 1, &items, &err) != VG_OK) {
         vg_cli_error(&err);
         if (!label_dir && strstr(err.message, "label"))
-            fprintf(stderr, "%s: hint: --label-from dir labels each set by its run directory\n",
-                    vg_cli_progname);
+            vg_cli_note("hint: --label-from dir labels each set by its run directory");
         goto done;
     }
     char iso[32], stamp[32];

@@ -29,6 +29,8 @@ static const char score_help[] =
     "      --data DIR         the data directory (default: $VECGAUGE_DATA, else\n"
     "                         $XDG_DATA_HOME/vecgauge, else ~/.local/share/vecgauge)\n"
     "      --manifest FILE    read this manifest instead of the built-in one\n"
+    "      --max-suite-bytes N  largest suite file once decompressed (default\n"
+    "                         67108864)\n"
     "\n"
     "Output:\n"
     "  -o, --out DIR          run directory to create (default: results/<UTC time>-<label>)\n"
@@ -84,7 +86,7 @@ typedef struct score_args {
     vg_cli_stats stats;       /* bootstrap settings; alpha, items, methods for several sets */
 } score_args;
 
-enum { OPT_FOLD = 256, OPT_DATA, OPT_MANIFEST, OPT_ANALOGY_VOCAB, OPT_KEEP_QWORDS };
+enum { OPT_FOLD = 256, OPT_DATA, OPT_MANIFEST, OPT_ANALOGY_VOCAB, OPT_KEEP_QWORDS, OPT_MAX_SUITE };
 
 static const struct option long_opts[] = {
     {"suite", required_argument, NULL, 's'},
@@ -92,6 +94,7 @@ static const struct option long_opts[] = {
     {"analogies", required_argument, NULL, 'a'},
     {"data", required_argument, NULL, OPT_DATA},
     {"manifest", required_argument, NULL, OPT_MANIFEST},
+    {"max-suite-bytes", required_argument, NULL, OPT_MAX_SUITE},
     {"out", required_argument, NULL, 'o'},
     {"fold-case", no_argument, NULL, OPT_FOLD},
     VG_CLI_BOOT_LONG_OPTIONS,
@@ -269,9 +272,9 @@ static int read_suites(score_args *a, vg_suite ***out, size_t *n_out) {
         const vg_suite_entry *e = vg_manifest_find(m, suites[k]->id);
         size_t bad = 0;
         if (e && *suites[k]->variant && vg_suite_entry_verify(e, suites[k], &bad) == VG_HASH_MISMATCH)
-            fprintf(stderr, "%s: warning: %s differs from the sha256 pinned for suite %s; its "
-                    "scores may not compare with published ones\n",
-                    vg_cli_progname, suites[k]->files[bad].path, suites[k]->id);
+            vg_cli_note("warning: %s differs from the sha256 pinned for suite %s; its "
+                        "scores may not compare with published ones",
+                        suites[k]->files[bad].path, suites[k]->id);
     }
     for (size_t k = 0; k < n; k++)
         for (size_t j = 0; j < k; j++)
@@ -321,6 +324,13 @@ int vg_cmd_score(int argc, char **argv) {
             break;
         case OPT_DATA: a.data = optarg; break;
         case OPT_MANIFEST: a.manifest = optarg; break;
+        case OPT_MAX_SUITE:
+            if (vg_cli_parse_u64(optarg, 1, UINT64_MAX, &u) != 0)
+                return vg_cli_usage_error("score", "--max-suite-bytes needs a positive integer, "
+                                                   "got '%s'",
+                                          optarg);
+            vg_suite_set_max_bytes(u);
+            break;
         case OPT_KEEP_QWORDS: a.eval.score.keep_question_words = 1; break;
         case OPT_ANALOGY_VOCAB:
             if (vg_cli_parse_u64(optarg, 0, SIZE_MAX, &u) != 0) {
@@ -434,8 +444,8 @@ int vg_cmd_score(int argc, char **argv) {
         /* Several sets: compare them item by item, on the same resamples
          * as their intervals. */
         if (a.stats.cmp.items == VG_COMPARE_AS_IS)
-            fprintf(stderr, "%s: warning: --no-common: each set is compared on the items it "
-                    "covers; differences mix vector quality with coverage\n", vg_cli_progname);
+            vg_cli_note("warning: --no-common: each set is compared on the items it "
+                        "covers; differences mix vector quality with coverage");
         if (vg_paired_items_from_results(res, &paired, &err) != VG_OK ||
             vg_compare(paired, &a.stats.cmp, &cmp, &err) != VG_OK) {
             vg_cli_error(&err);
@@ -476,7 +486,7 @@ int vg_cmd_score(int argc, char **argv) {
             vg_cli_error(&err);
             rc = VG_EXIT_FAIL;
         }
-        fprintf(stderr, "%s: run directory: %s\n", vg_cli_progname, out);
+        vg_cli_note("run directory: %s", out);
     }
 
 cleanup:

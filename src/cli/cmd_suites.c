@@ -287,7 +287,6 @@ int vg_cmd_suites(int argc, char **argv) {
     } else {
         list_table(m, data, src, sts);
     }
-    if (fflush(stdout) != 0) rc = VG_EXIT_FAIL;
     for (size_t i = 0; i < n; i++) vg_suite_free(sts[i].suite);
     free(sts);
     vg_manifest_free(m);

@@ -135,7 +135,7 @@ int vg_cmd_track(int argc, char **argv) {
             vg_cli_error(&err);
             goto done;
         }
-        fprintf(stderr, "%s: track report: %s\n", vg_cli_progname, out);
+        vg_cli_note("track report: %s", out);
     }
     rc = vg_track_n_regressed(t) && fail_on_reg ? VG_EXIT_REGRESSION : VG_EXIT_OK;
 done:

@@ -15,6 +15,8 @@ const char vg_cli_load_help[] =
     "      --allow-short      accept fewer (or more) rows than a header promises\n"
     "      --skip-bad-rows    skip and count malformed rows instead of stopping\n"
     "      --no-hash          do not compute the files' sha256\n"
+    "      --max-inflate N    a gzip file may inflate to N times its size, past 256 MiB\n"
+    "                         (default 64; 0: no bound)\n"
     "      --no-progress      no progress line, even on a terminal\n";
 
 int vg_cli_load_option(const char *command, int c, const char *arg, vg_load_options *lo,
@@ -40,6 +42,13 @@ int vg_cli_load_option(const char *command, int c, const char *arg, vg_load_opti
     case VG_OPT_SKIP_BAD: lo->skip_bad_rows = 1; return 1;
     case VG_OPT_NO_HASH: lo->compute_hash = 0; return 1;
     case VG_OPT_NO_PROGRESS: *progress = 0; return 1;
+    case VG_OPT_MAX_INFLATE:
+        if (vg_cli_parse_u64(arg, 0, 1032, &u) != 0) {
+            *rc = vg_cli_usage_error(command, "--max-inflate needs an integer 0..1032, got '%s'", arg);
+            return -1;
+        }
+        lo->max_inflate = (unsigned)u;
+        return 1;
     default: return 0;
     }
 }

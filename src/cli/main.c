@@ -1,6 +1,7 @@
 /* main.c - the vecgauge command: dispatch to a command.
  * Part of vecgauge; MIT licence, see LICENSE.
  */
+#include <errno.h>
 #include <stdio.h>
 #include <string.h>
 
@@ -45,6 +46,21 @@ static void main_help(FILE *fp) {
             "3 a significant regression (track --fail-on-regression).\n");
 }
 
+/* Standard output is checked once, here, after every command and after
+ * --help and --version: a write that failed (a full disk, /dev/full) is an
+ * error with a message, never exit status 0. */
+static int check_stdout(int rc) {
+    errno = 0;
+    int bad = fflush(stdout) != 0;
+    int e = errno;
+    if (!bad && !ferror(stdout)) return rc;
+    if (bad && e)
+        vg_cli_fail("cannot write to standard output: %s", strerror(e));
+    else
+        vg_cli_fail("cannot write to standard output");
+    return rc == VG_EXIT_OK ? VG_EXIT_FAIL : rc;
+}
+
 static const command *find(const char *name) {
     for (size_t i = 0; i < N_COMMANDS; i++)
         if (strcmp(commands[i].name, name) == 0) return &commands[i];
@@ -86,19 +102,19 @@ int main(int argc, char **argv) {
     }
     if (strcmp(argv[1], "--version") == 0 || strcmp(argv[1], "-V") == 0) {
         printf("vecgauge %s\n", vg_version());
-        return VG_EXIT_OK;
+        return check_stdout(VG_EXIT_OK);
     }
     if (strcmp(argv[1], "--help") == 0 || strcmp(argv[1], "-h") == 0) {
         main_help(stdout);
-        return VG_EXIT_OK;
+        return check_stdout(VG_EXIT_OK);
     }
     const command *c = find(argv[1]);
     if (!c) {
-        fprintf(stderr, "%s: unknown command '%s'\nTry '%s help'.\n", vg_cli_progname, argv[1],
-                vg_cli_progname);
+        vg_cli_note("unknown command '%s'", argv[1]);
+        fprintf(stderr, "Try '%s help'.\n", vg_cli_progname);
         return VG_EXIT_USAGE;
     }
-    int rc = c->run(argc - 1, argv + 1);
+    int rc = check_stdout(c->run(argc - 1, argv + 1));
     /* The process ends here: let go of cairo's and fontconfig's caches. */
     vg_plot_cleanup();
     return rc;

@@ -24,7 +24,7 @@ static void human_bytes(double b, char *out, size_t n) {
 }
 
 void vg_cli_progress_begin(vg_cli_progress *p, const char *label, int enabled) {
-    p->label = label;
+    vg_escape_text(label, p->label, sizeof p->label);
     p->enabled = enabled && isatty(STDERR_FILENO);
     p->t0 = now();
     p->last = 0;

@@ -18,26 +18,43 @@ int vg_cli_argc;
 char **vg_cli_argv;
 
 void vg_cli_error(const vg_error *err) {
-    char buf[VG_ERROR_PATH_MAX + VG_ERROR_MSG_MAX + 128];
+    char buf[4 * (VG_ERROR_PATH_MAX + VG_ERROR_MSG_MAX) + 128];
     fprintf(stderr, "%s: %s\n", vg_cli_progname, vg_error_format(err, buf, sizeof buf));
+}
+
+/* Every message goes through here: formatted, then escaped, so that a
+ * word, label or path holding control characters cannot drive the
+ * terminal (vg_escape_text). */
+static void vsay(const char *command, const char *fmt, va_list ap) {
+    char raw[4096], safe[4 * 4096];
+    vsnprintf(raw, sizeof raw, fmt, ap);
+    vg_escape_text(raw, safe, sizeof safe);
+    if (command)
+        fprintf(stderr, "%s %s: %s\n", vg_cli_progname, command, safe);
+    else
+        fprintf(stderr, "%s: %s\n", vg_cli_progname, safe);
 }
 
 void vg_cli_fail(const char *fmt, ...) {
     va_list ap;
-    fprintf(stderr, "%s: ", vg_cli_progname);
     va_start(ap, fmt);
-    vfprintf(stderr, fmt, ap);
+    vsay(NULL, fmt, ap);
     va_end(ap);
-    fputc('\n', stderr);
+}
+
+void vg_cli_note(const char *fmt, ...) {
+    va_list ap;
+    va_start(ap, fmt);
+    vsay(NULL, fmt, ap);
+    va_end(ap);
 }
 
 int vg_cli_usage_error(const char *command, const char *fmt, ...) {
     va_list ap;
-    fprintf(stderr, "%s %s: ", vg_cli_progname, command);
     va_start(ap, fmt);
-    vfprintf(stderr, fmt, ap);
+    vsay(command, fmt, ap);
     va_end(ap);
-    fprintf(stderr, "\nTry '%s %s --help'.\n", vg_cli_progname, command);
+    fprintf(stderr, "Try '%s %s --help'.\n", vg_cli_progname, command);
     return VG_EXIT_USAGE;
 }
 

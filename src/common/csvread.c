@@ -5,9 +5,9 @@
 
 #include <csv.h>
 #include <string.h>
-#include <zlib.h>
 
 #include "alloc.h"
+#include "lines.h"
 
 typedef struct build {
     vg_csv_table *t;
@@ -68,10 +68,9 @@ vg_status vg_csv_load(const char *path, size_t max_bytes, vg_csv_table **out, vg
     build b = {0};
     struct csv_parser p;
     int parser_ok = 0;
-    gzFile gz = NULL;
+    vg_lines *lr = NULL;
     vg_status st = VG_OK;
-    char *buf = NULL;
-    if (!t || !(t->path = vg_strdup(path)) || !(buf = vg_malloc(1 << 16))) {
+    if (!t || !(t->path = vg_strdup(path))) {
         st = vg_error_set(err, VG_ENOMEM, path, 0, "out of memory");
         goto done;
     }
@@ -81,34 +80,28 @@ vg_status vg_csv_load(const char *path, size_t max_bytes, vg_csv_table **out, vg
         goto done;
     }
     parser_ok = 1;
-    gz = gzopen(path, "rb");
-    if (!gz) {
-        st = vg_error_set(err, VG_EIO, path, 0, "cannot open");
-        goto done;
-    }
+    /* A regular file only: these are files vecgauge wrote, and a FIFO or
+     * a device in their place would hang or never end. */
+    vg_lines_opts o = {max_bytes, NULL, 1, 0};
+    st = vg_lines_open_opts(path, &o, &lr, err);
+    if (st != VG_OK) goto done;
     /* Feed one physical line at a time so that each record knows the line
      * it started on; libcsv carries quoted newlines across feeds. */
-    size_t total = 0;
-    b.line = 1;
-    while (gzgets(gz, buf, 1 << 16)) {
-        size_t len = strlen(buf);
-        total += len;
-        if (total > max_bytes) {
-            st = vg_error_set(err, VG_ELIMIT, path, b.line, "file larger than %zu bytes", max_bytes);
-            goto done;
-        }
-        if (csv_parse(&p, buf, len, on_field, on_record, &b) != len) {
+    char *line;
+    size_t len;
+    int rc;
+    while ((rc = vg_lines_next(lr, &line, &len, err)) > 0) {
+        b.line = vg_lines_number(lr);
+        if (csv_parse(&p, line, len, on_field, on_record, &b) != len ||
+            csv_parse(&p, "\n", 1, on_field, on_record, &b) != 1) {
             st = vg_error_set(err, VG_EFORMAT, path, b.start ? b.start : b.line,
                               "malformed CSV: %s", csv_strerror(csv_error(&p)));
             goto done;
         }
         if (b.oom) break;
-        if (len && buf[len - 1] == '\n') b.line++;
     }
-    int zerr;
-    gzerror(gz, &zerr);
-    if (zerr != Z_OK) {
-        st = vg_error_set(err, VG_EFORMAT, path, b.line, "read failed (corrupt gzip stream?)");
+    if (rc < 0) {
+        st = err->code;
         goto done;
     }
     if (csv_fini(&p, on_field, on_record, &b) != 0) {
@@ -119,8 +112,7 @@ vg_status vg_csv_load(const char *path, size_t max_bytes, vg_csv_table **out, vg
     if (b.oom) st = vg_error_set(err, VG_ENOMEM, path, b.line, "out of memory");
 done:
     if (parser_ok) csv_free(&p);
-    if (gz) gzclose(gz);
-    vg_free(buf);
+    vg_lines_close(lr);
     vg_free(b.fields);
     if (st != VG_OK) {
         vg_csv_free(t);

@@ -28,8 +28,9 @@ typedef struct vg_csv_table {
     vg_arena arena;
 } vg_csv_table;
 
-/* Read path (plain or gzip). Files larger than max_bytes are refused
- * with VG_ELIMIT. A malformed quoted field is VG_EFORMAT with the line.
+/* Read path (plain or gzip; a regular file: anything else is VG_EINVAL
+ * saying what it is). Files larger than max_bytes once decompressed are
+ * refused with VG_ELIMIT. A malformed quoted field is VG_EFORMAT with the line.
  * An empty file gives a table with no records. */
 VG_INTERNAL vg_status vg_csv_load(const char *path, size_t max_bytes, vg_csv_table **out,
                                   vg_error *err);

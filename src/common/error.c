@@ -77,10 +77,71 @@ void vg_error_prefix(vg_error *err, const char *fmt, ...) {
     err->message[pl + ol] = '\0';
 }
 
+/* Length of the valid UTF-8 sequence at s (n bytes left) that is not a
+ * C1 control, or 0. */
+static size_t utf8_printable(const unsigned char *s, size_t n) {
+    unsigned c = s[0];
+    size_t len;
+    unsigned cp;
+    if (c >= 0xC2 && c <= 0xDF) len = 2, cp = c & 0x1F;
+    else if (c >= 0xE0 && c <= 0xEF) len = 3, cp = c & 0x0F;
+    else if (c >= 0xF0 && c <= 0xF4) len = 4, cp = c & 0x07;
+    else return 0;
+    if (n < len) return 0;
+    for (size_t i = 1; i < len; i++) {
+        if ((s[i] & 0xC0) != 0x80) return 0;
+        cp = (cp << 6) | (s[i] & 0x3F);
+    }
+    /* Overlong forms, surrogates, beyond U+10FFFF, and C1 controls (a
+     * terminal may take U+009B as CSI). */
+    if ((len == 3 && cp < 0x800) || (len == 4 && cp < 0x10000) || (cp >= 0xD800 && cp <= 0xDFFF) ||
+        cp > 0x10FFFF || cp < 0xA0)
+        return 0;
+    return len;
+}
+
+char *vg_escape_text(const char *s, char *buf, size_t size) {
+    if (!buf || size == 0) return buf;
+    size_t o = 0;
+    const unsigned char *p = (const unsigned char *)(s ? s : "");
+    size_t n = strlen((const char *)p);
+    for (size_t i = 0; i < n;) {
+        unsigned c = p[i];
+        char esc[8];
+        const char *piece;
+        size_t len;
+        if (c >= 0x20 && c < 0x7F) {
+            piece = (const char *)p + i;
+            len = 1;
+            i++;
+        } else if (c >= 0x80 && (len = utf8_printable(p + i, n - i)) > 0) {
+            piece = (const char *)p + i;
+            i += len;
+        } else {
+            if (c == '\n') memcpy(esc, "\\n", 3);
+            else if (c == '\t') memcpy(esc, "\\t", 3);
+            else if (c == '\r') memcpy(esc, "\\r", 3);
+            else snprintf(esc, sizeof esc, "\\x%02x", c);
+            piece = esc;
+            len = c == '\n' || c == '\t' || c == '\r' ? 2 : 4;
+            i++;
+        }
+        if (o + len >= size) break;
+        memcpy(buf + o, piece, len);
+        o += len;
+    }
+    buf[o] = '\0';
+    return buf;
+}
+
 char *vg_error_format(const vg_error *err, char *buf, size_t size) {
     if (!buf || size == 0) return buf;
     buf[0] = '\0';
     if (!err) return buf;
+    /* Escaped copies: the path and message may hold a file's bytes. */
+    char path[VG_ERROR_PATH_MAX * 4], message[VG_ERROR_MSG_MAX * 4];
+    vg_escape_text(err->path, path, sizeof path);
+    vg_escape_text(err->message, message, sizeof message);
     size_t off = 0;
     int n;
 #define APPEND(...)                                                           \
@@ -90,13 +151,13 @@ char *vg_error_format(const vg_error *err, char *buf, size_t size) {
             if (n > 0) off += (size_t)n;                                      \
         }                                                                     \
     } while (0)
-    if (err->path[0]) {
-        APPEND("%s", err->path);
+    if (path[0]) {
+        APPEND("%s", path);
         if (err->line) APPEND(":%llu", (unsigned long long)err->line);
         if (err->line && err->column) APPEND(":%llu", (unsigned long long)err->column);
         APPEND(": ");
     }
-    APPEND("%s", err->message[0] ? err->message : vg_status_name(err->code));
+    APPEND("%s", message[0] ? message : vg_status_name(err->code));
     if (err->code == VG_EIO && err->sys_errno) APPEND(" (%s)", strerror(err->sys_errno));
 #undef APPEND
     return buf;

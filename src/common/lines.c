@@ -3,97 +3,92 @@
  */
 #include "lines.h"
 
-#include <errno.h>
+#include <stdatomic.h>
 #include <string.h>
-#include <zlib.h>
 
 #include "alloc.h"
+#include "infile.h"
+#include "vecgauge/suite.h"
 #include "vecgauge/vg_config.h"
 
 struct vg_lines {
-    gzFile gz;
-    char *path;
+    vg_instream *in;
     char *buf;          /* holds [start, end) unread bytes */
     size_t cap, start, end;
+    char *copy;         /* while keeping: the line handed out */
+    size_t copy_cap;
     uint64_t lineno;
-    int eof, gzip, gzip_known, crlf, bom, first;
+    int eof, crlf, bom, first, keep, bom_inside_error;
 };
 
-vg_status vg_lines_open(const char *path, vg_lines **out, vg_error *err) {
+_Thread_local uint64_t vg_lines_suite_limit;
+static _Atomic uint64_t suite_default = VG_MAX_SUITE_BYTES;
+
+void vg_suite_set_max_bytes(uint64_t n) { atomic_store(&suite_default, n ? n : VG_MAX_SUITE_BYTES); }
+uint64_t vg_suite_max_bytes(void) { return atomic_load(&suite_default); }
+
+vg_status vg_lines_open_opts(const char *path, const vg_lines_opts *o, vg_lines **out,
+                             vg_error *err) {
     *out = NULL;
     vg_lines *lr = vg_calloc(1, sizeof *lr);
     if (!lr) return vg_error_set(err, VG_ENOMEM, path, 0, "out of memory opening file");
-    lr->path = vg_strdup(path);
     lr->cap = 1 << 16;
     lr->buf = vg_malloc(lr->cap + 1);
-    if (!lr->path || !lr->buf) {
+    if (!lr->buf) {
         vg_lines_close(lr);
         return vg_error_set(err, VG_ENOMEM, path, 0, "out of memory opening file");
     }
-    errno = 0;
-    lr->gz = gzopen(path, "rb");
-    if (!lr->gz) {
+    vg_status st = vg_instream_open(path, (o->regular_only ? 0 : VG_IN_PIPE) | VG_IN_HASH,
+                                    o->max_bytes, o->limit_hint, &lr->in, err);
+    if (st != VG_OK) {
         vg_lines_close(lr);
-        return vg_error_set(err, VG_EIO, path, 0, "cannot open");
+        return st;
     }
-    gzbuffer(lr->gz, 1 << 17);
     lr->first = 1;
+    lr->bom_inside_error = o->bom_inside_error;
     *out = lr;
     return VG_OK;
 }
 
-/* Read more bytes after [start, end), moving or growing the buffer. */
+vg_status vg_lines_open(const char *path, vg_lines **out, vg_error *err) {
+    vg_lines_opts o = {vg_lines_suite_limit ? vg_lines_suite_limit : vg_suite_max_bytes(),
+                       vg_lines_suite_limit ? "the limit given for this download"
+                                            : "far more than any suite file holds",
+                       0, 1};
+    return vg_lines_open_opts(path, &o, out, err);
+}
+
+/* Read more bytes after [start, end), moving (unless keeping) or growing
+ * the buffer. */
 static int fill(vg_lines *lr, vg_error *err) {
-    if (lr->start > 0) {
+    if (lr->start > 0 && !lr->keep) {
         memmove(lr->buf, lr->buf + lr->start, lr->end - lr->start);
         lr->end -= lr->start;
         lr->start = 0;
     }
     if (lr->end == lr->cap) {
-        if (lr->cap >= VG_MAX_LINE) {
-            vg_error_set(err, VG_ELIMIT, lr->path, lr->lineno + 1,
+        /* The line being read fills what is unread: too long? */
+        if (lr->end - lr->start > VG_MAX_LINE) {
+            vg_error_set(err, VG_ELIMIT, vg_instream_path(lr->in), lr->lineno + 1,
                          "line longer than %u bytes", (unsigned)VG_MAX_LINE);
             return -1;
         }
         size_t ncap = lr->cap * 2;
         char *nb = vg_realloc(lr->buf, ncap + 1);
         if (!nb) {
-            vg_error_set(err, VG_ENOMEM, lr->path, lr->lineno + 1, "out of memory reading line");
+            vg_error_set(err, VG_ENOMEM, vg_instream_path(lr->in), lr->lineno + 1,
+                         "out of memory reading line");
             return -1;
         }
         lr->buf = nb;
         lr->cap = ncap;
     }
-    int n = gzread(lr->gz, lr->buf + lr->end, (unsigned)(lr->cap - lr->end));
+    long n = vg_instream_read(lr->in, lr->buf + lr->end, lr->cap - lr->end, err);
     if (n < 0) {
-        int zerr = 0;
-        const char *msg = gzerror(lr->gz, &zerr);
-        vg_error_set(err, zerr == Z_ERRNO ? VG_EIO : VG_EFORMAT, lr->path, lr->lineno + 1,
-                     "read failed: %s", msg ? msg : "unknown zlib error");
+        if (err->line == 0) err->line = lr->lineno + 1;
         return -1;
     }
-    if (n == 0) {
-        /* gzread returns 0 both at a clean end and on a truncated stream;
-         * only gzerror tells them apart. */
-        int zerr = 0;
-        const char *msg = gzerror(lr->gz, &zerr);
-        if (zerr != Z_OK && zerr != Z_BUF_ERROR) {
-            vg_error_set(err, VG_EFORMAT, lr->path, lr->lineno + 1, "corrupt gzip stream: %s",
-                         msg ? msg : "unknown zlib error");
-            return -1;
-        }
-        if (zerr == Z_BUF_ERROR) {
-            vg_error_set(err, VG_ETRUNCATED, lr->path, lr->lineno + 1,
-                         "gzip stream ends early (truncated download?)");
-            return -1;
-        }
-        lr->eof = 1;
-    }
-    if (!lr->gzip_known) {
-        /* gzdirect is only meaningful once the first bytes were read. */
-        lr->gzip = !gzdirect(lr->gz);
-        lr->gzip_known = 1;
-    }
+    if (n == 0) lr->eof = 1;
     lr->end += (size_t)n;
     return 0;
 }
@@ -105,10 +100,27 @@ int vg_lines_next(vg_lines *lr, char **line, size_t *len, vg_error *err) {
         char *nl = avail ? memchr(s, '\n', avail) : NULL;
         if (nl || (lr->eof && avail > 0)) {
             size_t n = nl ? (size_t)(nl - s) : avail;
+            const char *path = vg_instream_path(lr->in);
+            if (n > VG_MAX_LINE) {
+                vg_error_set(err, VG_ELIMIT, path, lr->lineno + 1, "line longer than %u bytes",
+                             (unsigned)VG_MAX_LINE);
+                return -1;
+            }
             lr->start += nl ? n + 1 : n;
+            lr->lineno++;
             if (n > 0 && s[n - 1] == '\r') {
                 n--;
                 lr->crlf = 1;
+            }
+            if (lr->keep) {
+                /* The kept bytes stay as read, for the rewind: hand out
+                 * a copy. */
+                if (vg_grow((void **)&lr->copy, &lr->copy_cap, n + 1, 1) != 0) {
+                    vg_error_set(err, VG_ENOMEM, path, lr->lineno, "out of memory reading line");
+                    return -1;
+                }
+                memcpy(lr->copy, s, n);
+                s = lr->copy;
             }
             s[n] = '\0';
             if (lr->first) {
@@ -119,11 +131,17 @@ int vg_lines_next(vg_lines *lr, char **line, size_t *len, vg_error *err) {
                     lr->bom = 1;
                 }
             }
-            lr->lineno++;
-            if (n > VG_MAX_LINE) {
-                vg_error_set(err, VG_ELIMIT, lr->path, lr->lineno, "line longer than %u bytes",
-                             (unsigned)VG_MAX_LINE);
-                return -1;
+            if (lr->bom_inside_error) {
+                const char *b = memmem(s, n, "\xEF\xBB\xBF", 3);
+                if (b) {
+                    vg_error_set(err, VG_EFORMAT, path, lr->lineno,
+                                 "a byte order mark (U+FEFF) inside the file, at byte %zu of the "
+                                 "line (files joined with cat?); only a file's first bytes may "
+                                 "hold one",
+                                 (size_t)(b - s) + 1);
+                    err->column = (uint64_t)(b - s) + 1;
+                    return -1;
+                }
             }
             *line = s;
             *len = n;
@@ -134,15 +152,30 @@ int vg_lines_next(vg_lines *lr, char **line, size_t *len, vg_error *err) {
     }
 }
 
+void vg_lines_keep(vg_lines *lr) { lr->keep = 1; }
+
+void vg_lines_rewind(vg_lines *lr) {
+    lr->keep = 0;
+    lr->start = 0;
+    lr->lineno = 0;
+    lr->first = 1;
+    lr->crlf = lr->bom = 0;
+}
+
 uint64_t vg_lines_number(const vg_lines *lr) { return lr->lineno; }
-int vg_lines_gzip(const vg_lines *lr) { return lr->gzip; }
+int vg_lines_gzip(const vg_lines *lr) { return vg_instream_gzip(lr->in); }
 int vg_lines_saw_crlf(const vg_lines *lr) { return lr->crlf; }
 int vg_lines_saw_bom(const vg_lines *lr) { return lr->bom; }
+const char *vg_lines_path(const vg_lines *lr) { return vg_instream_path(lr->in); }
+
+const char *vg_lines_sha256(vg_lines *lr, uint64_t *bytes) {
+    return vg_instream_sha256(lr->in, bytes);
+}
 
 void vg_lines_close(vg_lines *lr) {
     if (!lr) return;
-    if (lr->gz) gzclose(lr->gz);
+    vg_instream_close(lr->in);
     vg_free(lr->buf);
-    vg_free(lr->path);
+    vg_free(lr->copy);
     vg_free(lr);
 }

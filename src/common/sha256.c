@@ -11,6 +11,9 @@
 #include <errno.h>
 #include <openssl/evp.h>
 #include <stdio.h>
+#include <unistd.h>
+
+#include "infile.h"
 
 struct vg_sha256 {
     EVP_MD_CTX *ctx;
@@ -62,8 +65,16 @@ void vg_sha256_buffer(const void *data, size_t n, char hex[65]) {
 }
 
 vg_status vg_sha256_file(const char *path, char hex[65], uint64_t *bytes, vg_error *err) {
-    FILE *fp = fopen(path, "rb");
-    if (!fp) return vg_error_set(err, VG_EIO, path, 0, "cannot open for hashing");
+    /* Through vg_infile_open: a device or a FIFO nobody writes to is an
+     * error, not a hang. */
+    int fd;
+    vg_status st = vg_infile_open(path, VG_IN_PIPE, &fd, NULL, err);
+    if (st != VG_OK) return st;
+    FILE *fp = fdopen(fd, "rb");
+    if (!fp) {
+        close(fd);
+        return vg_error_set(err, VG_ENOMEM, path, 0, "out of memory opening for hashing");
+    }
     vg_sha256 *h = vg_sha256_new();
     if (!h) {
         fclose(fp);

@@ -76,13 +76,12 @@ static const char *const *one_answer(vg_suite *s, const char *w, size_t n) {
     return answers[0] ? answers : NULL;
 }
 
-static vg_status read_sectioned(const char *path, vg_suite *s, vg_analogy_layout layout,
+static vg_status read_sectioned(vg_lines *lr, vg_suite *s, vg_analogy_layout layout,
                                 vg_error *err) {
-    vg_lines *lr = NULL;
+    const char *path = vg_lines_path(lr);
     vg_fields f = VG_FIELDS_INIT;
     int saw_section = 0;
-    vg_status st = vg_lines_open(path, &lr, err);
-    if (st != VG_OK) return st;
+    vg_status st = VG_OK;
     char *line;
     size_t len;
     int rc;
@@ -149,8 +148,8 @@ static vg_status read_sectioned(const char *path, vg_suite *s, vg_analogy_layout
     snprintf(s->layout_detected, sizeof s->layout_detected, "%s, %zu section%s%s",
              saw_section ? "sectioned" : "four columns", s->n_sections,
              s->n_sections == 1 ? "" : "s", vg_lines_saw_crlf(lr) ? ", CRLF" : "");
+    st = vg_suite_add_file(s, lr, err);
 done:
-    vg_lines_close(lr);
     vg_fields_free(&f);
     return st;
 }
@@ -159,11 +158,13 @@ done:
  * sectioned; otherwise the number of fields of the first question line
  * (4: four columns, 2: a relation file "word<TAB>answers", 3: a
  * questions file whose answers are in another file). */
-static vg_status detect(const char *path, vg_analogy_layout *out, vg_error *err) {
-    vg_lines *lr = NULL;
+static vg_status detect(vg_lines *lr, vg_analogy_layout *out, vg_error *err) {
+    const char *path = vg_lines_path(lr);
     vg_fields f = VG_FIELDS_INIT;
-    vg_status st = vg_lines_open(path, &lr, err);
-    if (st != VG_OK) return st;
+    vg_status st = VG_OK;
+    /* The reader then starts again from the kept lines: a pipe is read
+     * once. */
+    vg_lines_keep(lr);
     char *line;
     size_t len;
     int rc;
@@ -201,7 +202,7 @@ static vg_status detect(const char *path, vg_analogy_layout *out, vg_error *err)
     if (st == VG_OK && rc < 0) st = err->code;
     if (st == VG_OK && *out == VG_ANALOGY_AUTO)
         st = vg_error_set(err, VG_EFORMAT, path, 0, "no analogy questions found");
-    vg_lines_close(lr);
+    vg_lines_rewind(lr);
     vg_fields_free(&f);
     return st;
 }
@@ -226,46 +227,52 @@ vg_status vg_suite_read_analogies(const char *path, const char *answers_path, co
     int is_dir = stat(path, &sb) == 0 && S_ISDIR(sb.st_mode);
     vg_status st = VG_OK;
     char *sibling = NULL;
-    if (layout == VG_ANALOGY_AUTO) {
-        if (is_dir)
-            layout = VG_ANALOGY_RELATION;
-        else if (answers_path)
-            layout = VG_ANALOGY_SPLIT;
-        else if ((st = detect(path, &layout, err)) != VG_OK)
-            return st;
-    }
-    if (is_dir && layout != VG_ANALOGY_RELATION)
+    vg_lines *lr = NULL;
+    if (is_dir && layout != VG_ANALOGY_AUTO && layout != VG_ANALOGY_RELATION)
         return vg_error_set(err, VG_EFORMAT, path, 0,
                             "a directory holds one file per relation; the %s layout needs a file",
                             vg_analogy_layout_name(layout));
+    if (is_dir) {
+        layout = VG_ANALOGY_RELATION;
+    } else {
+        /* One reader for detection and the reading itself. */
+        if ((st = vg_lines_open(path, &lr, err)) != VG_OK) return st;
+        if (layout == VG_ANALOGY_AUTO) {
+            if (answers_path)
+                layout = VG_ANALOGY_SPLIT;
+            else if ((st = detect(lr, &layout, err)) != VG_OK)
+                goto done;
+        }
+    }
     if (layout == VG_ANALOGY_SPLIT && !answers_path) {
         sibling = sibling_answers(path);
-        if (!sibling)
-            return vg_error_set(err, VG_EFORMAT, path, 0,
-                                "three words per line: a questions file needs its answers file "
-                                "(name it NAME.answers beside NAME.questions)");
+        if (!sibling) {
+            st = vg_error_set(err, VG_EFORMAT, path, 0,
+                              "three words per line: a questions file needs its answers file "
+                              "(name it NAME.answers beside NAME.questions)");
+            goto done;
+        }
         answers_path = sibling;
     }
     char stem[256];
     vg_suite *s = vg_suite_new(VG_TASK_ANALOGY, id && *id ? id : vg_path_stem(path, stem, sizeof stem));
     if (!s) {
-        vg_free(sibling);
-        return vg_error_set(err, VG_ENOMEM, path, 0, "out of memory");
+        st = vg_error_set(err, VG_ENOMEM, path, 0, "out of memory");
+        goto done;
     }
     switch (layout) {
-    case VG_ANALOGY_RELATION: st = vg_suite_read_relation(path, is_dir, s, err); break;
-    case VG_ANALOGY_SPLIT: st = vg_suite_read_split(path, answers_path, s, err); break;
-    default:
-        st = read_sectioned(path, s, layout, err);
-        if (st == VG_OK) st = vg_suite_add_file(s, path, err);
-        break;
+    case VG_ANALOGY_RELATION: st = vg_suite_read_relation(path, lr, s, err); break;
+    case VG_ANALOGY_SPLIT: st = vg_suite_read_split(lr, answers_path, s, err); break;
+    default: st = read_sectioned(lr, s, layout, err); break;
     }
     if (st == VG_OK) st = vg_suite_count_question_stats(s, err);
-    vg_free(sibling);
     if (st != VG_OK) {
         vg_suite_free(s);
-        return st;
+        goto done;
     }
     *out = s;
-    return VG_OK;
+done:
+    vg_lines_close(lr);
+    vg_free(sibling);
+    return st;
 }

@@ -144,10 +144,19 @@ int vg_parse_double(const char *s, size_t n, double *out) {
     if (n == 0 || n >= sizeof buf) return -1;
     memcpy(buf, s, n);
     buf[n] = '\0';
+    /* strtod also reads hexadecimal ("0x10", "0x1p3"): no rating is
+     * written so, and 0x10 is not ten. */
+    if (memchr(buf, 'x', n) || memchr(buf, 'X', n)) return -1;
     char *end;
     errno = 0;
     double d = strtod(buf, &end);
     if (end != buf + n || !isfinite(d)) return -1;
+    /* Digits that are not all zero, read as 0: an exponent beyond any
+     * double ("5e-99999"), not a rating. */
+    if (d == 0.0) {
+        for (size_t i = 0; i < n && (buf[i] | 0x20) != 'e'; i++)
+            if (buf[i] >= '1' && buf[i] <= '9') return -1;
+    }
     *out = d;
     return 0;
 }

@@ -39,7 +39,9 @@ VG_INTERNAL vg_status vg_fields_split(vg_fields *f, const char *line, size_t len
 
 VG_INTERNAL void vg_fields_free(vg_fields *f);
 
-/* Parse a whole field as a finite double. 0 on success, -1 otherwise. */
+/* Parse a whole field as a finite decimal double. 0 on success, -1
+ * otherwise: also for hexadecimal ("0x10", which strtod reads as 16) and
+ * for digits that are not all zero but read as 0 ("5e-99999"). */
 VG_INTERNAL int vg_parse_double(const char *s, size_t n, double *out);
 
 #endif /* VG_FIELDS_H */

@@ -14,8 +14,9 @@
  * rating column and the header lines. Enough to outvote one odd line
  * (a stray trailing tab), few enough to cost nothing. */
 #define SAMPLE_LINES 64
-/* At most this many leading lines are taken as a header. */
-#define MAX_HEADER_LINES 5
+/* Only the first data line may be a header: a second line without a
+ * rating is a broken row, reported as such, never dropped unseen. */
+#define MAX_HEADER_LINES 1
 
 void vg_pairs_layout_init(vg_pairs_layout *layout) {
     memset(layout, 0, sizeof *layout);
@@ -38,11 +39,8 @@ typedef struct sample {
     vg_arena arena;
 } sample;
 
-static vg_status read_sample(const char *path, const vg_pairs_layout *lay, sample *sm,
+static vg_status read_sample(vg_lines *lr, const vg_pairs_layout *lay, sample *sm,
                              vg_error *err) {
-    vg_lines *lr = NULL;
-    vg_status st = vg_lines_open(path, &lr, err);
-    if (st != VG_OK) return st;
     int raw_skip = lay->header_lines > 0 ? lay->header_lines : 0;
     char *line;
     size_t len;
@@ -56,15 +54,21 @@ static vg_status read_sample(const char *path, const vg_pairs_layout *lay, sampl
         /* Trailing blanks (a stray tab) say nothing about the layout. */
         while (len > 0 && (line[len - 1] == ' ' || line[len - 1] == '\t')) len--;
         sm->line[sm->n] = vg_arena_strndup(&sm->arena, line, len);
-        if (!sm->line[sm->n]) {
-            vg_lines_close(lr);
-            return vg_error_set(err, VG_ENOMEM, path, 0, "out of memory");
-        }
+        if (!sm->line[sm->n]) return vg_error_set(err, VG_ENOMEM, vg_lines_path(lr), 0, "out of memory");
         sm->len[sm->n++] = len;
     }
-    if (sm->n < SAMPLE_LINES && rc < 0) st = err->code;
-    vg_lines_close(lr);
-    return st;
+    if (sm->n < SAMPLE_LINES && rc < 0) return err->code;
+    return VG_OK;
+}
+
+/* 1 when a field begins as a number does ("0x10", "5e-99999", "-.5x"):
+ * where a rating goes, that is a rating written wrong, not a column
+ * name, so its line is a row (whose error the real pass reports), never
+ * a header dropped unseen. */
+static int starts_numeric(const char *s) {
+    if (*s == '+' || *s == '-') s++;
+    if (*s == '.') s++;
+    return *s >= '0' && *s <= '9';
 }
 
 /* Column (1-based) of the first field after the words that reads as a
@@ -87,14 +91,19 @@ static unsigned first_number_col(const vg_fields *f, unsigned after) {
  *    most common such column over the sample (SimLex-999 and SimVerb-3500
  *    have a part-of-speech column before the rating);
  *  - header: leading lines whose rating column is not a number. */
-static vg_status detect(const char *path, vg_pairs_layout *lay, unsigned c1, unsigned c2,
+static vg_status detect(vg_lines *lr, vg_pairs_layout *lay, unsigned c1, unsigned c2,
                         int *skip_data, vg_error *err) {
     *skip_data = 0;
     if (lay->delimiter && lay->col_rating && lay->header_lines >= 0) return VG_OK;
+    const char *path = vg_lines_path(lr);
     sample sm;
     memset(&sm, 0, sizeof sm);
     vg_fields f = VG_FIELDS_INIT;
-    vg_status st = read_sample(path, lay, &sm, err);
+    /* The sample is read from the same reader as the real pass, which
+     * then starts again from the kept lines: a pipe is read once. */
+    vg_lines_keep(lr);
+    vg_status st = read_sample(lr, lay, &sm, err);
+    vg_lines_rewind(lr);
     if (st != VG_OK || sm.n == 0) goto done;
     unsigned words = VG_MAX(c1, c2);
     unsigned need = lay->col_rating ? VG_MAX(words, lay->col_rating) : words + 1;
@@ -149,7 +158,8 @@ static vg_status detect(const char *path, vg_pairs_layout *lay, unsigned c1, uns
             if (vg_fields_split(&f, sm.line[k], sm.len[k], lay->delimiter, path, 0, &ignored) !=
                     VG_OK ||
                 f.n < VG_MAX(cr, words) ||
-                vg_parse_double(f.field[cr - 1], f.flen[cr - 1], &d) == 0)
+                vg_parse_double(f.field[cr - 1], f.flen[cr - 1], &d) == 0 ||
+                starts_numeric(f.field[cr - 1]))
                 break;
             k++;
         }
@@ -202,9 +212,9 @@ vg_status vg_suite_read_pairs(const char *path, const char *id, const vg_pairs_l
     vg_lines *lr = NULL;
     vg_fields f = VG_FIELDS_INIT;
     int skip_data = 0;
-    vg_status st = detect(path, &lay, c1, c2, &skip_data, err);
+    vg_status st = vg_lines_open(path, &lr, err);
     if (st != VG_OK) goto done;
-    st = vg_lines_open(path, &lr, err);
+    st = detect(lr, &lay, c1, c2, &skip_data, err);
     if (st != VG_OK) goto done;
 
     unsigned cr = lay.col_rating;
@@ -287,7 +297,7 @@ vg_status vg_suite_read_pairs(const char *path, const char *id, const vg_pairs_l
              s->stats.header_lines == 1 ? "" : "s", vg_lines_saw_crlf(lr) ? ", CRLF" : "",
              vg_lines_saw_bom(lr) ? ", BOM" : "");
     st = vg_suite_count_pair_stats(s, err);
-    if (st == VG_OK) st = vg_suite_add_file(s, path, err);
+    if (st == VG_OK) st = vg_suite_add_file(s, lr, err);
 
 done:
     vg_lines_close(lr);

@@ -57,15 +57,15 @@ static vg_status split_answers(vg_suite *s, rel_line *r, const char *field, size
     return VG_OK;
 }
 
-/* Read one relation file as one section named name, in group (or NULL). */
-static vg_status read_file(vg_suite *s, const char *path, const char *name, const char *group,
+/* Read one relation file (open in lr) as one section named name, in
+ * group (or NULL). */
+static vg_status read_file(vg_suite *s, vg_lines *lr, const char *name, const char *group,
                            vg_error *err) {
-    vg_lines *lr = NULL;
+    const char *path = vg_lines_path(lr);
     vg_fields f = VG_FIELDS_INIT;
     rel_line *lines = NULL;
     size_t n = 0, cap = 0;
-    vg_status st = vg_lines_open(path, &lr, err);
-    if (st != VG_OK) return st;
+    vg_status st = VG_OK;
     char *line;
     size_t len;
     int rc;
@@ -149,18 +149,26 @@ static vg_status read_file(vg_suite *s, const char *path, const char *name, cons
             q->section = s->n_sections - 1;
             s->sections[q->section].count++;
         }
-    st = vg_suite_add_file(s, path, err);
+    st = vg_suite_add_file(s, lr, err);
 done:
     vg_free(lines);
-    vg_lines_close(lr);
     vg_fields_free(&f);
     return st;
 }
 
-/* Relation files under a directory: relative paths, collected depth-first. */
+/* Relation files under a directory: relative paths, collected depth-first,
+ * with the device and inode of each (to find one reached twice). */
+typedef struct rel_file {
+    char *rel;
+    dev_t dev;
+    ino_t ino;
+} rel_file;
+
 typedef struct file_list {
-    char **rel;
+    rel_file *f;
     size_t n, cap;
+    const char *root;
+    char *real_root;    /* the folder, links resolved */
 } file_list;
 
 static int is_relation_name(const char *name) {
@@ -170,8 +178,19 @@ static int is_relation_name(const char *name) {
     return strncasecmp(name, "readme", 6) != 0 && strncasecmp(name, "licen", 5) != 0;
 }
 
-static vg_status collect(const char *root, const char *rel, int depth, file_list *fl,
-                         vg_error *err) {
+/* 1 when the directory link full leads inside the folder. */
+static int link_inside(const file_list *fl, const char *full) {
+    char *real = realpath(full, NULL);
+    if (!real) return 0;
+    size_t n = strlen(fl->real_root);
+    int inside = strncmp(real, fl->real_root, n) == 0 && (real[n] == '/' || real[n] == '\0' ||
+                                                          (n == 1 && fl->real_root[0] == '/'));
+    free(real);
+    return inside;
+}
+
+static vg_status collect(file_list *fl, const char *rel, int depth, vg_error *err) {
+    const char *root = fl->root;
     char dir[4096];
     if ((size_t)snprintf(dir, sizeof dir, "%s%s%s", root, *rel ? "/" : "", rel) >= sizeof dir)
         return vg_error_set(err, VG_ELIMIT, root, 0, "path too long");
@@ -188,16 +207,29 @@ static vg_status collect(const char *root, const char *rel, int depth, file_list
             st = vg_error_set(err, VG_ELIMIT, dir, 0, "path too long");
             break;
         }
-        struct stat sb;
-        if (stat(full, &sb) != 0) continue;
+        struct stat lsb, sb;
+        if (lstat(full, &lsb) != 0 || stat(full, &sb) != 0) continue;
         if (S_ISDIR(sb.st_mode)) {
-            if (depth < MAX_DEPTH) st = collect(root, sub, depth + 1, fl, err);
+            /* A link to a folder is followed only when it stays inside:
+             * a relation folder never reads files from elsewhere. A link
+             * back up (to "." or a parent) is found below, as files
+             * reached twice. */
+            if (S_ISLNK(lsb.st_mode) && !link_inside(fl, full)) {
+                st = vg_error_set(err, VG_EFORMAT, full, 0,
+                                  "a link to a folder outside %s; not followed (copy the "
+                                  "files in instead)",
+                                  root);
+                break;
+            }
+            if (depth < MAX_DEPTH) st = collect(fl, sub, depth + 1, err);
         } else if (S_ISREG(sb.st_mode) && is_relation_name(de->d_name)) {
-            if (vg_grow((void **)&fl->rel, &fl->cap, fl->n + 1, sizeof *fl->rel) != 0 ||
-                !(fl->rel[fl->n] = vg_strdup(sub))) {
+            if (vg_grow((void **)&fl->f, &fl->cap, fl->n + 1, sizeof *fl->f) != 0 ||
+                !(fl->f[fl->n].rel = vg_strdup(sub))) {
                 st = vg_error_set(err, VG_ENOMEM, dir, 0, "out of memory");
                 break;
             }
+            fl->f[fl->n].dev = sb.st_dev;
+            fl->f[fl->n].ino = sb.st_ino;
             fl->n++;
         }
     }
@@ -205,39 +237,69 @@ static vg_status collect(const char *root, const char *rel, int depth, file_list
     return st;
 }
 
-static int cmp_str(const void *a, const void *b) {
-    return strcmp(*(char *const *)a, *(char *const *)b);
+static int cmp_rel(const void *a, const void *b) {
+    return strcmp(((const rel_file *)a)->rel, ((const rel_file *)b)->rel);
 }
 
-vg_status vg_suite_read_relation(const char *path, int is_dir, vg_suite *s, vg_error *err) {
+static int cmp_inode(const void *a, const void *b) {
+    const rel_file *x = a, *y = b;
+    if (x->dev != y->dev) return x->dev < y->dev ? -1 : 1;
+    if (x->ino != y->ino) return x->ino < y->ino ? -1 : 1;
+    return strcmp(x->rel, y->rel);
+}
+
+/* A file reached twice (through a link to a folder above it, or two
+ * links to one folder) would repeat its questions: an error naming both
+ * paths. Sorts fl by inode; the caller sorts it back by path. */
+static vg_status check_once(file_list *fl, vg_error *err) {
+    if (fl->n < 2) return VG_OK;
+    qsort(fl->f, fl->n, sizeof *fl->f, cmp_inode);
+    for (size_t i = 1; i < fl->n; i++)
+        if (fl->f[i].dev == fl->f[i - 1].dev && fl->f[i].ino == fl->f[i - 1].ino)
+            return vg_error_set(err, VG_EFORMAT, fl->root, 0,
+                                "%.200s and %.200s are the same file, reached twice through a "
+                                "link (a link loop, or two links to one folder)",
+                                fl->f[i - 1].rel, fl->f[i].rel);
+    return VG_OK;
+}
+
+vg_status vg_suite_read_relation(const char *path, vg_lines *lr, vg_suite *s, vg_error *err) {
     char stem[256];
-    if (!is_dir) {
-        vg_status st = read_file(s, path, vg_path_stem(path, stem, sizeof stem), NULL, err);
+    if (lr) {
+        vg_status st = read_file(s, lr, vg_path_stem(path, stem, sizeof stem), NULL, err);
         if (st == VG_OK)
             snprintf(s->layout_detected, sizeof s->layout_detected,
                      "one relation file, %zu questions", s->n_items);
         return st;
     }
-    file_list fl = {NULL, 0, 0};
-    vg_status st = collect(path, "", 0, &fl, err);
+    file_list fl = {NULL, 0, 0, path, realpath(path, NULL)};
+    vg_status st = fl.real_root ? VG_OK : vg_error_set(err, VG_EIO, path, 0, "cannot resolve the folder");
+    if (st == VG_OK) st = collect(&fl, "", 0, err);
+    if (st == VG_OK) st = check_once(&fl, err);
     /* Sorted by relative path, so the sections come in a fixed order
-     * whatever order the file system lists them in. */
-    if (st == VG_OK) qsort(fl.rel, fl.n, sizeof *fl.rel, cmp_str);
+     * whatever order the file system lists them in. (qsort is not given
+     * an empty list: its array may then be NULL.) */
+    if (st == VG_OK && fl.n > 1) qsort(fl.f, fl.n, sizeof *fl.f, cmp_rel);
     if (st == VG_OK && fl.n == 0)
         st = vg_error_set(err, VG_EFORMAT, path, 0, "no relation files (*.txt) in the directory");
     for (size_t i = 0; st == VG_OK && i < fl.n; i++) {
         char full[4096], group[1024];
-        snprintf(full, sizeof full, "%s/%s", path, fl.rel[i]);
+        snprintf(full, sizeof full, "%s/%s", path, fl.f[i].rel);
         /* The folder a relation file sits in groups it (BATS has one
          * folder per kind of relation); files at the top have no group. */
-        const char *slash = strrchr(fl.rel[i], '/');
-        if (slash) snprintf(group, sizeof group, "%.*s", (int)(slash - fl.rel[i]), fl.rel[i]);
-        st = read_file(s, full, vg_path_stem(full, stem, sizeof stem), slash ? group : NULL, err);
+        const char *slash = strrchr(fl.f[i].rel, '/');
+        if (slash) snprintf(group, sizeof group, "%.*s", (int)(slash - fl.f[i].rel), fl.f[i].rel);
+        vg_lines *fr = NULL;
+        st = vg_lines_open(full, &fr, err);
+        if (st == VG_OK)
+            st = read_file(s, fr, vg_path_stem(full, stem, sizeof stem), slash ? group : NULL, err);
+        vg_lines_close(fr);
     }
     if (st == VG_OK)
         snprintf(s->layout_detected, sizeof s->layout_detected,
                  "one file per relation, %zu files", fl.n);
-    for (size_t i = 0; i < fl.n; i++) vg_free(fl.rel[i]);
-    vg_free(fl.rel);
+    for (size_t i = 0; i < fl.n; i++) vg_free(fl.f[i].rel);
+    vg_free(fl.f);
+    free(fl.real_root);
     return st;
 }

@@ -18,11 +18,11 @@ static int next_nonblank(vg_lines *lr, char **line, size_t *len, vg_error *err) 
     return rc;
 }
 
-vg_status vg_suite_read_split(const char *qpath, const char *apath, vg_suite *s, vg_error *err) {
-    vg_lines *lq = NULL, *la = NULL;
+vg_status vg_suite_read_split(vg_lines *lq, const char *apath, vg_suite *s, vg_error *err) {
+    vg_lines *la = NULL;
     vg_fields fq = VG_FIELDS_INIT, fa = VG_FIELDS_INIT;
-    vg_status st = vg_lines_open(qpath, &lq, err);
-    if (st == VG_OK) st = vg_lines_open(apath, &la, err);
+    const char *qpath = vg_lines_path(lq);
+    vg_status st = vg_lines_open(apath, &la, err);
     if (st == VG_OK) st = vg_suite_open_section(s, "", 0, qpath, 0, err);
     while (st == VG_OK) {
         char *ql, *al;
@@ -79,10 +79,9 @@ vg_status vg_suite_read_split(const char *qpath, const char *apath, vg_suite *s,
     if (st == VG_OK) {
         snprintf(s->layout_detected, sizeof s->layout_detected,
                  "questions and answers in two files%s", vg_lines_saw_crlf(lq) ? ", CRLF" : "");
-        st = vg_suite_add_file(s, qpath, err);
+        st = vg_suite_add_file(s, lq, err);
     }
-    if (st == VG_OK) st = vg_suite_add_file(s, apath, err);
-    vg_lines_close(lq);
+    if (st == VG_OK) st = vg_suite_add_file(s, la, err);
     vg_lines_close(la);
     vg_fields_free(&fq);
     vg_fields_free(&fa);

@@ -8,6 +8,7 @@
 
 #include "../common/arena.h"
 #include "../common/internal.h"
+#include "../common/lines.h"
 #include "vecgauge/suite.h"
 
 /* The private part of a vg_suite (vg_suite.priv_). */
@@ -30,8 +31,9 @@ VG_INTERNAL char *vg_suite_intern(vg_suite *s, const char *str, size_t n);
 VG_INTERNAL vg_pair *vg_suite_add_pair(vg_suite *s);
 VG_INTERNAL vg_question *vg_suite_add_question(vg_suite *s);
 
-/* Record the file (path, size, sha256) in s->files. */
-VG_INTERNAL vg_status vg_suite_add_file(vg_suite *s, const char *path, vg_error *err);
+/* Record the file lr has read to its end (path, size, sha256 of the
+ * stored bytes) in s->files. */
+VG_INTERNAL vg_status vg_suite_add_file(vg_suite *s, vg_lines *lr, vg_error *err);
 
 /* Count duplicates, reversed duplicates and self-pairs of a pair suite. */
 VG_INTERNAL vg_status vg_suite_count_pair_stats(vg_suite *s, vg_error *err);
@@ -51,13 +53,15 @@ VG_INTERNAL vg_status vg_suite_add_abc(vg_suite *s, const char *const w[3], cons
                                        const char *const *answers, size_t n_answers,
                                        uint64_t lineno, const char *path, vg_error *err);
 
-/* The relation layout (relation.c): path is one relation file, or (is_dir)
- * a directory searched for *.txt relation files, one section each. */
-VG_INTERNAL vg_status vg_suite_read_relation(const char *path, int is_dir, vg_suite *s,
+/* The relation layout (relation.c): lr is one relation file already open
+ * (path its name), or NULL for path a directory searched for *.txt
+ * relation files, one section each. */
+VG_INTERNAL vg_status vg_suite_read_relation(const char *path, vg_lines *lr, vg_suite *s,
                                              vg_error *err);
 
-/* The split layout (split.c): questions "a b c" in qpath, answers in apath. */
-VG_INTERNAL vg_status vg_suite_read_split(const char *qpath, const char *apath, vg_suite *s,
+/* The split layout (split.c): questions "a b c" from lq (open), answers
+ * in apath. */
+VG_INTERNAL vg_status vg_suite_read_split(vg_lines *lq, const char *apath, vg_suite *s,
                                           vg_error *err);
 
 /* The built-in manifest: benchmarks-manifest/suites.csv, compiled in by

@@ -57,6 +57,24 @@ size_t vg_detect_count_dims(const char *p, size_t n, size_t *count, size_t *dims
     return i < n ? i + 1 : i;
 }
 
+/* 1 when the first line is two integers, at least one with a '-' ("3
+ * -5"): a header written wrong, which would otherwise read as a row of
+ * one value and decide the dimension of what follows. */
+static int negative_header(const char *p, size_t n) {
+    size_t i = 0;
+    int neg = 0;
+    for (int k = 0; k < 2; k++) {
+        while (i < n && IS_BLANK(p[i])) i++;
+        if (i < n && (p[i] == '-' || p[i] == '+')) neg |= p[i++] == '-';
+        size_t d = i;
+        while (i < n && p[i] >= '0' && p[i] <= '9') i++;
+        if (i == d) return 0;
+        if (k == 0 && !(i < n && IS_BLANK(p[i]))) return 0;
+    }
+    while (i < n && (IS_BLANK(p[i]) || p[i] == '\r')) i++;
+    return neg && (i == n || p[i] == '\n');
+}
+
 /* Blank-separated fields of the line [p, e) ('\r' before the end ignored),
  * and in *numeric how many of the last fields, counted back from the end,
  * parse as finite numbers (at most cap). */
@@ -168,6 +186,13 @@ static vg_status plain_text(const char *p, size_t n, int whole, size_t skip, con
         counts[0] = line_fields(p + skip, nl ? nl : p + n, VG_MAX_DIMS + 1, &num);
         numeric[0] = num;
         k = counts[0] ? 1 : 0;
+        /* One field and no blank in all the bytes looked at: a first word
+         * far past the word limit, not a row of one field. */
+        if (counts[0] == 1 && !whole && !nl)
+            return vg_error_set(err, VG_ELIMIT, path, 1,
+                                "line 1 starts with a word of more than %zu bytes (no blank or "
+                                "line break in them); the limit is %u",
+                                n - skip, (unsigned)VG_MAX_WORD);
     }
     if (k == 0) return vg_error_set(err, VG_EFORMAT, path, 1, "empty file: expected word vectors");
     /* A row's dims: all its fields but the word; for rows whose word holds
@@ -209,7 +234,16 @@ vg_status vg_detect_layout(const char *p, size_t n, int whole, vg_layout forced,
      * (behind its "count dims" line) may hold. */
     size_t count = 0, hdims = 0;
     size_t hb = vg_detect_count_dims(p + bom, n - bom, &count, &hdims);
-    if (hb && hdims == 0) hb = 0;
+    if (hb && hdims == 0)
+        return vg_error_set(err, VG_EFORMAT, path, 1,
+                            "line 1 '%zu 0' reads as a 'count dims' header of 0 dimensions: no "
+                            "vectors",
+                            count);
+    if (!hb && negative_header(p + bom, n - bom))
+        return vg_error_set(err, VG_EFORMAT, path, 1,
+                            "line 1 holds two integers, one negative: a 'count dims' header "
+                            "cannot be negative, and a row of one value whose word is a "
+                            "number is not a vector file");
     if (!hb) {
         if (forced == VG_LAYOUT_BINARY || forced == VG_LAYOUT_TEXT_HEADER)
             return vg_error_set(err, VG_EFORMAT, path, 1,

@@ -72,9 +72,16 @@ static int slow_path(const char *p, const char *t, float *out) {
     float f = strtof(buf, &end);
     errno = saved;
     int whole = end == buf + n;
+    /* Hexadecimal ("0x1p3"), which strtof reads but no trainer writes;
+     * and digits that are not all zero before the exponent, yet a zero
+     * result: an exponent beyond any float, not a value. */
+    int hex = memchr(buf, 'x', n) || memchr(buf, 'X', n);
+    int nonzero = 0;
+    for (size_t i = 0; i < n && (buf[i] | 0x20) != 'e'; i++) nonzero |= buf[i] >= '1' && buf[i] <= '9';
     if (buf != small) vg_free(buf);
-    if (!whole) return VG_FLOAT_NOT_NUMBER;
+    if (!whole || hex) return VG_FLOAT_NOT_NUMBER;
     if (!isfinite(f)) return VG_FLOAT_NOT_FINITE;
+    if (f == 0.0f && nonzero) return VG_FLOAT_UNDERFLOW;
     *out = f;
     return VG_FLOAT_OK;
 }

@@ -25,15 +25,19 @@
 enum {
     VG_FLOAT_OK = 0,        /* *out holds the value */
     VG_FLOAT_NOT_NUMBER = -1, /* the token is not a whole number */
-    VG_FLOAT_NOT_FINITE = -2  /* NaN, infinity, or beyond float's range */
+    VG_FLOAT_NOT_FINITE = -2, /* NaN, infinity, or beyond float's range */
+    VG_FLOAT_UNDERFLOW = -3   /* not zero, but rounds to 0 in float (1e-99999) */
 };
 
 /* Parse the token starting at p (it ends at the first delimiter or at
  * end) as strtof would read it in the C locale, rounding to nearest.
  * Stores the token's end in *tok_end and returns VG_FLOAT_OK with *out
- * set, VG_FLOAT_NOT_NUMBER when strtof would not consume the whole token,
- * or VG_FLOAT_NOT_FINITE for NaN, infinities and overflow. Values that
- * underflow keep strtof's result (a subnormal or zero). Thread-safe. */
+ * set, VG_FLOAT_NOT_NUMBER when strtof would not consume the whole token
+ * or it is hexadecimal (strtof reads "0x1p3"; no trainer writes it), or
+ * VG_FLOAT_NOT_FINITE for NaN, infinities and overflow. A value that
+ * underflows to a subnormal keeps strtof's result; one whose digits are
+ * not all zero but which rounds to 0 (an absurd exponent) is
+ * VG_FLOAT_UNDERFLOW. Thread-safe. */
 VG_INTERNAL int vg_scan_float(const char *p, const char *end, const char **tok_end, float *out);
 
 /* ---- the inline fast path, for parsers that know a token's length ---- */

@@ -10,6 +10,7 @@
  * (padding some tools add) are ignored, anything else there is an error.
  */
 #include <errno.h>
+#include <stdio.h>
 #include <string.h>
 #include <unistd.h>
 
@@ -181,6 +182,21 @@ static int fill(vg_src *s, vg_sbuf *b) {
         s->z.avail_out = (uInt)room;
         int rc = inflate(&s->z, Z_NO_FLUSH);
         b->len += room - s->z.avail_out;
+        s->inflated += room - s->z.avail_out;
+        if (s->max_inflate && s->inflated > VG_INFLATE_FLOOR &&
+            s->inflated / s->max_inflate > raw_pos(s)) {
+            /* A bomb: stop before its bytes reach memory. */
+            char why[160];
+            snprintf(why, sizeof why,
+                     "%llu stored bytes inflate to more than %llu, over %u times their size",
+                     (unsigned long long)raw_pos(s), (unsigned long long)s->inflated,
+                     s->max_inflate);
+            set_perr(s, VG_ELIMIT,
+                     "gzip data: %s; real vector files inflate 3 to 5 times (--max-inflate "
+                     "raises the bound)",
+                     why);
+            return -1;
+        }
         if (rc == Z_STREAM_END) {
             /* Hand back what zlib did not use: the next member's bytes. */
             s->in_next -= s->z.avail_in;

@@ -14,6 +14,7 @@ static vg_status load_from(vg_src *src, const vg_load_options *opt, vg_vectors *
     const char *p;
     size_t n;
     int whole;
+    vg_src_limit_inflate(src, opt->max_inflate);
     vg_status st = vg_src_peek(src, &p, &n, &whole, err);
     if (st != VG_OK) return st;
     vg_detect d;
@@ -28,6 +29,12 @@ static vg_status load_from(vg_src *src, const vg_load_options *opt, vg_vectors *
     default: st = vg_error_set(err, VG_EINTERNAL, path, 0, "no reader for the detected layout");
     }
     if (st == VG_OK) st = vg_src_finish(src, err);
+    /* A header of "0 300" alone, or rows all skipped: a set of no vectors
+     * would score as if every word were missing, with exit status 0. */
+    if (st == VG_OK && v->info.rows_read == 0)
+        st = vg_error_set(err, VG_EFORMAT, path, 0,
+                          "no vectors in the file%s",
+                          v->info.bad_rows ? " (every row was bad and skipped)" : "");
     if (st != VG_OK) {
         vg_vectors_free(v);
         return st;

@@ -12,6 +12,7 @@
 #include <unistd.h>
 
 #include "../common/alloc.h"
+#include "../common/infile.h"
 #include "../common/filemap.h"
 #include "vecgauge/vg_config.h"
 
@@ -87,16 +88,16 @@ vg_status vg_src_open(const char *path, int hash, vg_progress_fn progress, void 
     if (!s) return VG_ENOMEM;
     s->progress = progress;
     s->progress_ctx = progress_ctx;
-    vg_status st = VG_OK;
-    int fd = open(path, O_RDONLY | O_CLOEXEC);
+    /* A device or a directory is refused, a FIFO nobody writes to is an
+     * error after a wait, never a hang (vg_infile_open). */
+    int fd = -1, regular = 0;
+    vg_status st = vg_infile_open(path, VG_IN_PIPE, &fd, &regular, err);
     struct stat sb;
-    if (fd < 0) {
-        st = vg_error_set(err, VG_EIO, path, 0, "cannot open: %s", strerror(errno));
+    if (st != VG_OK) {
+        fd = -1;
     } else if (fstat(fd, &sb) != 0) {
         st = vg_error_set(err, VG_EIO, path, 0, "cannot stat: %s", strerror(errno));
-    } else if (S_ISDIR(sb.st_mode)) {
-        st = vg_error_set(err, VG_EINVAL, path, 0, "is a directory, expected a vector file");
-    } else if (S_ISREG(sb.st_mode)) {
+    } else if (regular) {
         s->stored = (uint64_t)sb.st_size;
         s->size_known = 1;
         if (sb.st_size > 0) {
@@ -111,7 +112,7 @@ vg_status vg_src_open(const char *path, int hash, vg_progress_fn progress, void 
             s->kind = s->gzip ? SRC_STREAM : SRC_MAP;
         }
     } else {
-        s->kind = SRC_STREAM; /* a pipe or device: read as it comes */
+        s->kind = SRC_STREAM; /* a pipe: read as it comes */
         s->fd = fd;
         fd = -1;
     }
@@ -150,6 +151,8 @@ vg_status vg_src_open_buffer(const void *data, size_t n, const char *name, int h
     *out = s;
     return VG_OK;
 }
+
+void vg_src_limit_inflate(vg_src *s, unsigned ratio) { s->max_inflate = ratio; }
 
 const char *vg_src_path(const vg_src *s) { return s->path; }
 int vg_src_gzip(const vg_src *s) { return s->gzip; }

@@ -57,6 +57,11 @@ VG_INTERNAL vg_status vg_src_open(const char *path, int hash, vg_progress_fn pro
 VG_INTERNAL vg_status vg_src_open_buffer(const void *data, size_t n, const char *name, int hash,
                                          vg_src **out, vg_error *err);
 
+/* Bound a gzip source's inflation: more than ratio times the stored bytes
+ * consumed (past VG_INFLATE_FLOOR) is VG_ELIMIT. 0: no bound. Call
+ * before vg_src_peek. */
+VG_INTERNAL void vg_src_limit_inflate(vg_src *s, unsigned ratio);
+
 VG_INTERNAL const char *vg_src_path(const vg_src *s);
 VG_INTERNAL int vg_src_gzip(const vg_src *s);
 /* The size of the file as stored (compressed size for gzip); for a pipe,

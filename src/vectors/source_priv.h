@@ -42,6 +42,8 @@ struct vg_src {
     uint64_t stored;    /* the regular file's size */
     int size_known;     /* a regular file (or buffer): stored is its size */
     uint64_t raw_read;  /* bytes read so far by the producer (read() input) */
+    unsigned max_inflate; /* gzip: inflated / stored bound (0: none) */
+    uint64_t inflated;  /* gzip: bytes inflated so far */
 
     /* SHA-256 of the stored bytes: in order, in vg_src_release for
      * mappings, in the producer for pipes. */

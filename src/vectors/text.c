@@ -215,8 +215,29 @@ static int row_slow(tslot *s, const char *line, size_t len, size_t dims, const c
         return ROW_BAD;
     }
     /* A word holding spaces: the last dims fields are the vector and
-     * everything before them the word (common practice). */
+     * everything before them the word (common practice). But when the
+     * field just before the values is itself a number, the row holds
+     * more values than the others ("sun 1 0 0" among rows of two): rows
+     * that disagree in width are an error, never a word "sun 1". */
     size_t first_val = (size_t)nf - dims;
+    if (first_val > 1) {
+        size_t f = first_val - 1;
+        float ignored;
+        int rc = vg_parse_token_slow(line + s->fs[f], s->fe[f] - s->fs[f], &ignored);
+        if (rc == VG_FLOAT_OK || rc == VG_FLOAT_NOT_FINITE || rc == VG_FLOAT_UNDERFLOW) {
+            size_t nums = 1;
+            while (nums < f && vg_parse_token_slow(line + s->fs[f - nums],
+                                                   s->fe[f - nums] - s->fs[f - nums],
+                                                   &ignored) != VG_FLOAT_NOT_NUMBER)
+                nums++;
+            vg_error_set(e, VG_EFORMAT, path, 0,
+                         "expected a word and %zu value%s, found %zu values after the word: "
+                         "rows disagree in width (a word holding spaces cannot end in a number)",
+                         dims, dims == 1 ? "" : "s", dims + nums);
+            e->column = f + 1;
+            return ROW_BAD;
+        }
+    }
     *word = line + s->fs[0];
     *wlen = s->fe[first_val - 1] - s->fs[0];
     *spaced = first_val > 1;
@@ -229,7 +250,9 @@ static int row_slow(tslot *s, const char *line, size_t len, size_t dims, const c
             int show = (int)VG_MIN(tl, (size_t)40);
             vg_error_set(e, VG_EVALUE, path, 0,
                          rc == VG_FLOAT_NOT_FINITE ? "value %zu is not finite: '%.*s'"
-                                                   : "value %zu is not a number: '%.*s'",
+                         : rc == VG_FLOAT_UNDERFLOW
+                             ? "value %zu is not zero but underflows to 0 in float32: '%.*s'"
+                             : "value %zu is not a number: '%.*s'",
                          j + 1, show, tok);
             e->column = f + 1;
             return ROW_BAD;

@@ -30,6 +30,7 @@ void vg_load_options_init(vg_load_options *opt) {
     memset(opt, 0, sizeof *opt);
     opt->layout = VG_LAYOUT_AUTO;
     opt->compute_hash = 1;
+    opt->max_inflate = VG_MAX_INFLATE;
 }
 
 static const char *const layout_names[] = {"auto", "text-header", "text", "binary", "npy"};

@@ -89,6 +89,7 @@ vg_status vg_vocab_read(const char *explicit_path, const char *vectors_path, siz
     vg_src *src = NULL;
     vg_status st = vg_src_open(path, hash, NULL, NULL, &src, err);
     if (st != VG_OK) return st;
+    vg_src_limit_inflate(src, VG_MAX_INFLATE);
     size_t cap = 0;
     /* A plain file of S bytes holds at most S / 2 + 1 words (a byte and a
      * newline each): reserve that once and the lists never move. */

@@ -37,7 +37,11 @@ static int reference(const char *s, size_t len, float *out) {
     errno = 0;
     float f = strtof(buf, &end);
     if (end != buf + len) return VG_FLOAT_NOT_NUMBER;
+    /* The two refusals fastfloat.h documents on top of strtof (issue 29):
+     * hexadecimal, and digits that are not all zero read as 0. */
+    if (strchr(buf, 'x') || strchr(buf, 'X')) return VG_FLOAT_NOT_NUMBER;
     if (!isfinite(f)) return VG_FLOAT_NOT_FINITE;
+    if (f == 0.0f && strcspn(buf, "123456789") < strcspn(buf, "eE")) return VG_FLOAT_UNDERFLOW;
     *out = f;
     return VG_FLOAT_OK;
 }
@@ -227,7 +231,7 @@ static void test_edges(void **state) {
          * the one-step conversion and the bytes it must refuse. */
         "1.234567", "-1.234567", "123456.7", ".1234567", "-.1234567", "1234567.", "9.999999",
         "-9.999999", "0.000000", "-0.000000", "1.000000", "00.00001", "1.2x4567", "12.4-678",
-        "0.1234e6", "1.23456.", "1.",
+        "0.1234e6", "1.23456.", "1.", "1e-99999", "-5e-99999", "0e-99999", "0x0",
     };
     tally t = {0, 0, 0, 0};
     uint64_t fb0 = vg_float_fallbacks();
@@ -247,8 +251,38 @@ static void test_edges(void **state) {
     assert_int_equal(t.agree, t.n);
 }
 
+/* float-6 (issue 29): what strtof accepts but a vector file never holds
+ * is refused with its own verdict: hexadecimal is not a number, and
+ * digits that are not all zero but read as 0 underflow; a subnormal
+ * (common practice: fastText prints them) and a written zero stay. */
+static void test_refusals(void **state) {
+    (void)state;
+    static const struct {
+        const char *s;
+        int want;
+    } cases[] = {
+        {"0x10", VG_FLOAT_NOT_NUMBER},   {"0x1p3", VG_FLOAT_NOT_NUMBER},
+        {"-0X1.8P1", VG_FLOAT_NOT_NUMBER}, {"1e-99999", VG_FLOAT_UNDERFLOW},
+        {"7e-46", VG_FLOAT_UNDERFLOW},   {"-2e-60", VG_FLOAT_UNDERFLOW},
+        {"1e-45", VG_FLOAT_OK},          {"0e-99999", VG_FLOAT_OK},
+        {"0.0000", VG_FLOAT_OK},         {"inf", VG_FLOAT_NOT_FINITE},
+    };
+    for (size_t i = 0; i < sizeof cases / sizeof cases[0]; i++) {
+        char pad[64] = {0};
+        size_t len = strlen(cases[i].s);
+        memcpy(pad, cases[i].s, len);
+        float f;
+        const char *end;
+        int r1 = vg_scan_float(pad, pad + len, &end, &f);
+        int r2 = vg_parse_token(pad, len, &f);
+        if (r1 != cases[i].want || r2 != cases[i].want)
+            fail_msg("'%s': scan %d, token %d, want %d", cases[i].s, r1, r2, cases[i].want);
+    }
+}
+
 int main(void) {
     const struct CMUnitTest tests[] = {
+        cmocka_unit_test(test_refusals),
         cmocka_unit_test(test_vector_style),    cmocka_unit_test(test_short_decimals),
         cmocka_unit_test(test_all_floats),
         cmocka_unit_test(test_random_decimals), cmocka_unit_test(test_midpoints),
