@@ -46,7 +46,8 @@ typedef struct vg_fetch_options {
                                 for tests against a local server; never for
                                 other hosts; redirects are then not followed */
     int force;               /* download even when the suite is present */
-    long timeout;            /* seconds without progress before giving up; 0: 60 */
+    long timeout;            /* seconds without data before giving up (over every
+                                address tried for a suite); 0: 60 */
     vg_fetch_note_fn note;   /* NULL: notes are dropped */
     void *note_ctx;
 } vg_fetch_options;
@@ -73,13 +74,17 @@ typedef struct vg_fetch_result {
  *   VG_EHASH      a digest differs from the pinned one (nothing installed)
  *   VG_EFORMAT    an unsafe archive member, or the files do not read as the suite
  *   VG_ENOTFOUND  a needed archive member is missing, or no url is known
- *   VG_ELIMIT     the download or the extracted members exceed max_bytes
+ *   VG_ELIMIT     the download or the extracted members exceed max_bytes,
+ *                 or a staged file inflates past it when read
  *   VG_EINVAL     an address that is not https:// (see allow_http)
  *   VG_EHASH      also when a present copy differs from its pins and
  *                 force is not set (the copy is left alone)
  *   VG_EIO        the data directory cannot be written
  * Nothing is left half-written: work happens in a temporary directory
- * inside data_dir, removed afterwards. */
+ * inside data_dir, removed afterwards, and the suite's folder (its files
+ * and vecgauge-fetch.csv) is replaced in one step, with what else it held
+ * kept. opt->timeout counts the time without data across every address
+ * tried for the suite, so a stalled server costs it once. */
 VG_API vg_status vg_fetch_suite(const vg_suite_entry *e, const vg_fetch_options *opt,
                                 vg_fetch_result *res, vg_error *err);
 

@@ -9,6 +9,7 @@
 #include <string.h>
 
 #include "../common/alloc.h"
+#include "../common/strmap.h"
 #include "../common/threads.h"
 #include "../stats/resample.h"
 #include "eval_impl.h"
@@ -165,25 +166,49 @@ vg_status vg_eval_analogy_rows(vg_results *r, size_t *cap, size_t set, size_t su
     }
 
     /* Groups of sections ("semantic", "syntactic"), in order of first
-     * appearance; their items in section order. */
+     * appearance; their items in section order. One pass numbers the
+     * groups through a map and counts their items, one places the items
+     * (linear in sections: a file of 16,000 sections used to take
+     * seconds here). */
+    size_t ns = s->n_sections;
     size_t *gitems = vg_calloc(n ? n : 1, sizeof *gitems);
-    if (st == VG_OK && !gitems) st = vg_error_set(err, VG_ENOMEM, NULL, 0, "out of memory");
-    for (size_t k = 0; st == VG_OK && k < s->n_sections; k++) {
+    size_t *gof = vg_calloc(ns ? ns : 1, sizeof *gof);   /* section -> group, or -1 */
+    size_t *gstart = vg_calloc(ns + 1, sizeof *gstart);  /* group -> first slot */
+    size_t *gfirst = vg_calloc(ns ? ns : 1, sizeof *gfirst); /* group -> first section */
+    vg_strmap groups = VG_STRMAP_INIT;
+    size_t ng = 0;
+    if (st == VG_OK && (!gitems || !gof || !gstart || !gfirst))
+        st = vg_error_set(err, VG_ENOMEM, NULL, 0, "out of memory");
+    for (size_t k = 0; st == VG_OK && k < ns; k++) {
         const char *g = s->sections[k].group;
+        gof[k] = (size_t)-1;
         if (!g) continue;
-        int seen = 0;
-        for (size_t e = 0; e < k && !seen; e++)
-            seen = s->sections[e].group && strcmp(s->sections[e].group, g) == 0;
-        if (seen) continue;
-        size_t m = 0;
-        for (size_t e = k; e < s->n_sections; e++) {
-            const vg_section *sec = &s->sections[e];
-            if (!sec->group || strcmp(sec->group, g) != 0) continue;
-            for (size_t i = 0; i < sec->count; i++) gitems[m++] = sec->first + i;
+        size_t have;
+        int ins = vg_strmap_put(&groups, g, strlen(g), ng, &have);
+        if (ins < 0) {
+            st = vg_error_set(err, VG_ENOMEM, NULL, 0, "out of memory");
+            break;
         }
-        subset sub = {g, gitems, m};
+        if (ins) gfirst[ng] = k;
+        gof[k] = ins ? ng++ : have;
+        gstart[gof[k] + 1] += s->sections[k].count;
+    }
+    for (size_t g = 0; st == VG_OK && g < ng; g++) gstart[g + 1] += gstart[g];
+    for (size_t k = 0; st == VG_OK && k < ns; k++) {
+        if (gof[k] == (size_t)-1) continue;
+        const vg_section *sec = &s->sections[k];
+        for (size_t i = 0; i < sec->count; i++) gitems[gstart[gof[k]]++] = sec->first + i;
+    }
+    /* gstart[g] now ends group g; the group before it ends where g starts. */
+    for (size_t g = 0; st == VG_OK && g < ng; g++) {
+        size_t b = g ? gstart[g - 1] : 0;
+        subset sub = {s->sections[gfirst[g]].group, gitems + b, gstart[g] - b};
         st = subset_rows(r, cap, set, suite, &sub, opt, err);
     }
+    vg_strmap_free(&groups);
+    vg_free(gof);
+    vg_free(gstart);
+    vg_free(gfirst);
     vg_free(gitems);
     vg_free(items);
     return st;

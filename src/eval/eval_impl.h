@@ -11,6 +11,10 @@
  * (a suite's section name or a static string). -1 when out of memory. */
 VG_INTERNAL int vg_results_add_row(vg_results *r, size_t *cap, const vg_score_row *row);
 
+/* Build vg_results_find's index once every row is in (rows must not be
+ * added after). VG_ENOMEM on allocation failure. */
+VG_INTERNAL vg_status vg_results_index(vg_results *r, vg_error *err);
+
 /* Add interval iv to row (ignored beyond VG_MAX_INTERVALS). */
 VG_INTERNAL void vg_row_add_interval(vg_score_row *row, double low, double high,
                                      const char *method);

@@ -75,6 +75,7 @@ vg_status vg_evaluate(const vg_vector_set *sets, size_t n_sets, const vg_suite *
                 vg_error_prefix(err, "vector set %s, suite %s: ", r->labels[i], suites[k]->id);
         }
     }
+    if (st == VG_OK) st = vg_results_index(r, err);
     if (st != VG_OK) {
         vg_results_free(r);
         return st;

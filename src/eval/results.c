@@ -5,6 +5,8 @@
 #include <string.h>
 
 #include "../common/alloc.h"
+#include "../common/arena.h"
+#include "../common/strmap.h"
 #include "eval_impl.h"
 
 static const char *const metric_names[VG_METRIC_COUNT] = {
@@ -53,12 +55,64 @@ const vg_agreement *vg_results_agreement(const vg_results *r, size_t suite) {
     return &r->agreement[suite];
 }
 
+/* The index behind vg_results_find: key "set suite metric all subset"
+ * (fixed-width numbers, then the subset's bytes) -> first row. */
+typedef struct row_index {
+    vg_strmap map;
+    vg_arena keys;
+} row_index;
+
+static char *row_key(vg_arena *a, size_t set, size_t suite, vg_metric m, int all,
+                     const char *subset, char *buf, size_t cap, size_t *len) {
+    size_t sl = strlen(subset);
+    size_t n = 3 * sizeof(uint64_t) + 1 + sl;
+    char *k = a ? vg_arena_alloc(a, n) : (n <= cap ? buf : NULL);
+    if (!k) return NULL;
+    uint64_t head[3] = {set, suite, (uint64_t)m};
+    memcpy(k, head, sizeof head);
+    k[sizeof head] = (char)(all != 0);
+    memcpy(k + sizeof head + 1, subset, sl);
+    *len = n;
+    return k;
+}
+
+vg_status vg_results_index(vg_results *r, vg_error *err) {
+    row_index *ix = vg_calloc(1, sizeof *ix);
+    if (!ix || vg_strmap_reserve(&ix->map, r->n_rows) != 0) {
+        vg_free(ix);
+        return vg_error_set(err, VG_ENOMEM, NULL, 0, "out of memory indexing the scores");
+    }
+    for (size_t i = 0; i < r->n_rows; i++) {
+        const vg_score_row *row = &r->rows[i];
+        size_t len;
+        char *k = row_key(&ix->keys, row->set, row->suite, row->metric, row->all_items,
+                          row->subset, NULL, 0, &len);
+        if (!k || vg_strmap_put(&ix->map, k, len, i, NULL) < 0) {
+            vg_strmap_free(&ix->map);
+            vg_arena_free(&ix->keys);
+            vg_free(ix);
+            return vg_error_set(err, VG_ENOMEM, NULL, 0, "out of memory indexing the scores");
+        }
+    }
+    r->lookup_ = ix;
+    return VG_OK;
+}
+
 const vg_score_row *vg_results_find(const vg_results *r, size_t set, size_t suite,
                                     const char *subset, vg_metric metric, int all_items) {
+    if (!subset) subset = "";
+    const row_index *ix = r->lookup_;
+    char buf[512];
+    size_t len;
+    const char *k;
+    if (ix && (k = row_key(NULL, set, suite, metric, all_items, subset, buf, sizeof buf, &len))) {
+        size_t at = vg_strmap_get(&ix->map, k, len);
+        return at == (size_t)-1 ? NULL : &r->rows[at];
+    }
     for (size_t i = 0; i < r->n_rows; i++) {
         const vg_score_row *row = &r->rows[i];
         if (row->set == set && row->suite == suite && row->metric == metric &&
-            row->all_items == all_items && strcmp(row->subset, subset ? subset : "") == 0)
+            row->all_items == all_items && strcmp(row->subset, subset) == 0)
             return row;
     }
     return NULL;
@@ -83,6 +137,12 @@ void vg_results_free(vg_results *r) {
     vg_free(r->blocks);
     vg_free(r->suites);
     vg_free(r->rows);
+    row_index *ix = r->lookup_;
+    if (ix) {
+        vg_strmap_free(&ix->map);
+        vg_arena_free(&ix->keys);
+        vg_free(ix);
+    }
     vg_free(r->agreement);
     vg_free(r);
 }

@@ -9,6 +9,8 @@
  * installed.
  */
 #include <csv.h>
+#include <dirent.h>
+#include <fcntl.h>
 #include <errno.h>
 #include <ftw.h>
 #include <stdarg.h>
@@ -20,6 +22,7 @@
 #include <unistd.h>
 
 #include "../common/alloc.h"
+#include "../common/lines.h"
 #include "../common/sha256.h"
 #include "fetch_impl.h"
 
@@ -128,43 +131,102 @@ static vg_status write_record(const char *dir, const vg_suite_variant *var, cons
     return VG_OK;
 }
 
-/* Move the staged files into <data>/<id>/. A file replaces its old copy
- * in one rename; a directory is swapped with two, the old one kept in
- * the stage until the new one is in place. */
-static vg_status install(const vg_suite_entry *e, const vg_suite_variant *var, const char *stage,
-                         const char *data_dir, vg_error *err) {
-    char dest_dir[4096], from[4096], to[4096], old[4300];
-    vg_status st = join(dest_dir, sizeof dest_dir, data_dir, e->id, err);
-    if (st == VG_OK) st = vg_fetch_mkdirs(dest_dir, err);
-    for (size_t f = 0; st == VG_OK && f < var->n_files; f++) {
-        char staged_dir[4096];
-        st = join(staged_dir, sizeof staged_dir, stage, e->id, err);
-        if (st == VG_OK) st = join(from, sizeof from, staged_dir, var->files[f], err);
-        if (st == VG_OK) st = join(to, sizeof to, dest_dir, var->files[f], err);
-        if (st != VG_OK) break;
-        /* Parent folders of a nested file name. */
-        char *slash = strrchr(to, '/');
-        if (slash && slash > to + strlen(dest_dir)) {
-            *slash = '\0';
-            st = vg_fetch_mkdirs(to, err);
-            *slash = '/';
-            if (st != VG_OK) break;
+/* 1 when rel (a path inside the suite's folder) is what the variant
+ * installs: one of its files or folders, or the fetch record. */
+static int replaced(const vg_suite_variant *var, const char *rel) {
+    if (strcmp(rel, VG_FETCH_RECORD) == 0) return 1;
+    for (size_t f = 0; f < var->n_files; f++) {
+        size_t n = strlen(var->files[f]);
+        if (n > 1 && var->files[f][n - 1] == '/') n--;
+        if (strlen(rel) == n && strncmp(rel, var->files[f], n) == 0) return 1;
+    }
+    return 0;
+}
+
+/* Keep in the staged folder what the old one holds beside the variant's
+ * files (another variant's files, the user's own): hard links, so the old
+ * bytes stay where they are, walked below old/rel into new/rel. */
+static vg_status keep_others(const vg_suite_variant *var, const char *old_dir,
+                             const char *new_dir, const char *rel, vg_error *err) {
+    char od[4096], nd[4096];
+    if ((size_t)snprintf(od, sizeof od, "%s%s%s", old_dir, *rel ? "/" : "", rel) >= sizeof od ||
+        (size_t)snprintf(nd, sizeof nd, "%s%s%s", new_dir, *rel ? "/" : "", rel) >= sizeof nd)
+        return vg_error_set(err, VG_ELIMIT, old_dir, 0, "path too long");
+    DIR *d = opendir(od);
+    if (!d) return vg_error_set(err, VG_EIO, od, 0, "cannot read the installed copy");
+    vg_status st = VG_OK;
+    struct dirent *de;
+    while (st == VG_OK && (de = readdir(d)) != NULL) {
+        if (strcmp(de->d_name, ".") == 0 || strcmp(de->d_name, "..") == 0) continue;
+        char sub[4096], from[4096], to[4096];
+        if ((size_t)snprintf(sub, sizeof sub, "%s%s%s", rel, *rel ? "/" : "", de->d_name) >= sizeof sub ||
+            (size_t)snprintf(from, sizeof from, "%s/%s", od, de->d_name) >= sizeof from ||
+            (size_t)snprintf(to, sizeof to, "%s/%s", nd, de->d_name) >= sizeof to) {
+            st = vg_error_set(err, VG_ELIMIT, od, 0, "path too long");
+            break;
         }
-        struct stat sb;
-        if (is_dir_name(var->files[f]) && lstat(to, &sb) == 0) {
-            snprintf(old, sizeof old, "%s/.old-%zu", stage, f);
-            if (rename(to, old) != 0) {
-                st = vg_error_set(err, VG_EIO, to, 0, "cannot move the old copy aside");
+        if (replaced(var, sub)) continue;
+        struct stat osb, nsb;
+        if (lstat(from, &osb) != 0) continue;
+        int have = lstat(to, &nsb) == 0;
+        if (S_ISDIR(osb.st_mode)) {
+            if (have && !S_ISDIR(nsb.st_mode)) continue;
+            if (!have && mkdir(to, osb.st_mode & 07777) != 0) {
+                st = vg_error_set(err, VG_EIO, to, 0, "cannot create directory");
                 break;
             }
+            st = keep_others(var, old_dir, new_dir, sub, err);
+        } else if (!have && link(from, to) != 0) {
+            st = vg_error_set(err, VG_EIO, from, 0,
+                              "cannot keep this file of the installed copy (a hard link failed)");
         }
-        if (rename(from, to) != 0) st = vg_error_set(err, VG_EIO, to, 0, "cannot rename into place");
     }
+    closedir(d);
     return st;
 }
 
+/* Install the staged folder <stage>/<id> (the variant's files and the
+ * fetch record) as <data>/<id> in one step: what the old folder holds
+ * beside them is linked in first, then the two folders are exchanged by
+ * one renameat2(RENAME_EXCHANGE), atomic, so that a failure at any point
+ * leaves the old copy whole and its record with it, never a mix. Where
+ * the file system cannot exchange, the old folder is moved aside and the
+ * new one renamed in (moved back if that fails). The old folder ends in
+ * the stage, removed with it. */
+static vg_status install(const vg_suite_entry *e, const vg_suite_variant *var, const char *stage,
+                         const char *data_dir, vg_error *err) {
+    char dest[4096], staged[4096], aside[4200];
+    vg_status st = join(dest, sizeof dest, data_dir, e->id, err);
+    if (st == VG_OK) st = join(staged, sizeof staged, stage, e->id, err);
+    if (st != VG_OK) return st;
+    snprintf(aside, sizeof aside, "%s/.old", stage);
+    struct stat sb;
+    if (lstat(dest, &sb) != 0) {
+        if (rename(staged, dest) != 0) return vg_error_set(err, VG_EIO, dest, 0, "cannot rename into place");
+        return VG_OK;
+    }
+    if (!S_ISDIR(sb.st_mode))
+        return vg_error_set(err, VG_EIO, dest, 0, "is not a directory; the suite's folder cannot go there");
+    st = keep_others(var, dest, staged, "", err);
+    if (st != VG_OK) return st;
+    const char *fail = getenv("VECGAUGE_TEST_FAIL_INSTALL");
+    if (fail && *fail == '1')
+        return vg_error_set(err, VG_EIO, dest, 0, "cannot rename into place (test hook)");
+    if (renameat2(AT_FDCWD, staged, AT_FDCWD, dest, RENAME_EXCHANGE) == 0) return VG_OK;
+    if (errno != EINVAL && errno != ENOSYS && errno != ENOTSUP)
+        return vg_error_set(err, VG_EIO, dest, 0, "cannot exchange the old copy for the new");
+    if (rename(dest, aside) != 0) return vg_error_set(err, VG_EIO, dest, 0, "cannot move the old copy aside");
+    if (rename(staged, dest) != 0) {
+        st = vg_error_set(err, VG_EIO, dest, 0, "cannot rename into place");
+        if (rename(aside, dest) != 0)
+            vg_error_prefix(err, "and the old copy stays at %.200s: ", aside);
+        return st;
+    }
+    return VG_OK;
+}
+
 static vg_status try_variant(const vg_suite_entry *e, size_t v, const vg_fetch_options *opt,
-                             vg_fetch_result *res, vg_error *err) {
+                             double *last_progress, vg_fetch_result *res, vg_error *err) {
     const vg_suite_variant *var = &e->variants[v];
     uint64_t max = opt->max_bytes ? opt->max_bytes : VG_FETCH_MAX_BYTES;
     int archive = 0;
@@ -202,7 +264,7 @@ static vg_status try_variant(const vg_suite_entry *e, size_t v, const vg_fetch_o
         goto done;
     }
     snprintf(dl, sizeof dl, "%s/.download", stage);
-    st = vg_fetch_download(var->url, dl, opt, dl_sha, &dl_bytes, err);
+    st = vg_fetch_download(var->url, dl, opt, last_progress, dl_sha, &dl_bytes, err);
     if (st != VG_OK) goto done;
     res->bytes = dl_bytes;
     if (*var->download_sha256 && strcmp(dl_sha, var->download_sha256) != 0) {
@@ -237,18 +299,19 @@ static vg_status try_variant(const vg_suite_entry *e, size_t v, const vg_fetch_o
             goto done;
         }
     }
-    /* The staged copy must read as the suite before it is installed. */
+    /* The staged copy must read as the suite before it is installed, and
+     * within the size limit: a small file may inflate far past it. */
+    uint64_t saved_limit = vg_lines_suite_limit;
+    vg_lines_suite_limit = max;
     st = vg_suite_read_entry(e, stage, &s, err);
+    vg_lines_suite_limit = saved_limit;
     if (st != VG_OK) {
         vg_error_prefix(err, "the files from %.200s do not read as suite %s: ", var->url, e->id);
         goto done;
     }
-    st = install(e, var, stage, opt->data_dir, err);
-    if (st == VG_OK) {
-        char dir[4096];
-        st = join(dir, sizeof dir, opt->data_dir, e->id, err);
-        if (st == VG_OK) st = write_record(dir, var, dl_sha, dl_bytes, sha, bytes, err);
-    }
+    /* The record goes in with the files, in the same step. */
+    st = write_record(root, var, dl_sha, dl_bytes, sha, bytes, err);
+    if (st == VG_OK) st = install(e, var, stage, opt->data_dir, err);
     if (st != VG_OK) goto done;
     if (!*var->download_sha256 && first_seen)
         note(opt, "%s: download sha256 %s (first seen, not pinned in the manifest)", e->id, dl_sha);
@@ -295,10 +358,13 @@ vg_status vg_fetch_suite(const vg_suite_entry *e, const vg_fetch_options *opt, v
     }
     vg_status st = VG_ENOTFOUND;
     int tried = 0;
+    struct timespec t0;
+    clock_gettime(CLOCK_MONOTONIC, &t0);
+    double last_progress = (double)t0.tv_sec + (double)t0.tv_nsec * 1e-9;
     for (size_t v = 0; v < e->n_variants; v++) {
         if (!*e->variants[v].url) continue;
         tried = 1;
-        st = try_variant(e, v, opt, res, err);
+        st = try_variant(e, v, opt, &last_progress, res, err);
         if (st == VG_OK) return VG_OK;
         /* The last failure is the caller's error; earlier ones are notes. */
         size_t next = v + 1;

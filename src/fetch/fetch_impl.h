@@ -14,10 +14,13 @@
 VG_INTERNAL vg_status vg_fetch_check_url(const char *url, int allow_http, vg_error *err);
 
 /* Download url into dest (created, must not exist) within opt's limits;
- * sha256 gets the digest of the bytes received, *bytes their count. */
+ * sha256 gets the digest of the bytes received, *bytes their count.
+ * *last_progress (CLOCK_MONOTONIC seconds) is when bytes last arrived for
+ * this suite: updated here, and the download gives up once opt->timeout
+ * seconds pass without any, counted across every address tried. */
 VG_INTERNAL vg_status vg_fetch_download(const char *url, const char *dest,
-                                        const vg_fetch_options *opt, char sha256[65],
-                                        uint64_t *bytes, vg_error *err);
+                                        const vg_fetch_options *opt, double *last_progress,
+                                        char sha256[65], uint64_t *bytes, vg_error *err);
 
 /* Create dir and every missing parent (mkdir -p). VG_EIO names the one
  * that could not be made. */

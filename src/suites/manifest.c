@@ -15,6 +15,8 @@
 
 #include "../common/alloc.h"
 #include "../common/arena.h"
+#include "../common/infile.h"
+#include "../common/strmap.h"
 #include "suite_impl.h"
 
 enum col {
@@ -49,6 +51,8 @@ struct vg_manifest {
     vg_arena arena;
     building *entries;
     size_t n, cap;
+    vg_strmap by_id;     /* id -> index into entries: one lookup per row */
+    vg_strmap by_variant;/* "id\0variant" of every row, for repeats */
 };
 
 /* The parse state passed through libcsv's callbacks. */
@@ -187,9 +191,16 @@ static vg_status fill_variant(parse *p, building *b, vg_suite_variant *v) {
     v->manifest_line = p->line;
     v->name = get(p, C_VARIANT);
     if (!*v->name) return bad(p, C_VARIANT, "expected a variant name", v->name);
-    for (size_t i = 0; i < b->n_variants; i++)
-        if (strcmp(b->variants[i].name, v->name) == 0)
-            return bad(p, C_VARIANT, "each variant of a suite needs its own name", v->name);
+    /* Key "id\0variant" in one map for the manifest: a check per row,
+     * not a scan of the suite's variants so far. */
+    size_t il = strlen(b->e.id), vl = strlen(v->name);
+    char *key = vg_arena_alloc(&p->m->arena, il + 1 + vl);
+    if (!key) return vg_error_set(p->err, VG_ENOMEM, p->name, p->line, "out of memory");
+    memcpy(key, b->e.id, il + 1);
+    memcpy(key + il + 1, v->name, vl);
+    int ins = vg_strmap_put(&p->m->by_variant, key, il + 1 + vl, 0, NULL);
+    if (ins < 0) return vg_error_set(p->err, VG_ENOMEM, p->name, p->line, "out of memory");
+    if (ins == 0) return bad(p, C_VARIANT, "each variant of a suite needs its own name", v->name);
     const char **files, **members, **sha;
     size_t nf, nm, ns;
     if (split_list(p, get(p, C_FILES), &files, &nf) != VG_OK ||
@@ -375,10 +386,11 @@ static vg_status handle_row(parse *p) {
         return bad(p, C_ID, "expected an id of lower-case letters, digits, '-', '_' or '.'", id);
     vg_manifest *m = p->m;
     building *b = NULL;
-    for (size_t i = 0; i < m->n; i++)
-        if (strcmp(m->entries[i].e.id, id) == 0) b = &m->entries[i];
+    size_t at = vg_strmap_get(&m->by_id, id, strlen(id));
+    if (at != (size_t)-1) b = &m->entries[at];
     if (!b) {
-        if (vg_grow((void **)&m->entries, &m->cap, m->n + 1, sizeof *m->entries) != 0)
+        if (vg_grow((void **)&m->entries, &m->cap, m->n + 1, sizeof *m->entries) != 0 ||
+            vg_strmap_put(&m->by_id, id, strlen(id), m->n, NULL) < 0)
             return vg_error_set(p->err, VG_ENOMEM, p->name, p->line, "out of memory");
         b = &m->entries[m->n++];
         memset(b, 0, sizeof *b);
@@ -418,6 +430,8 @@ void vg_manifest_free(vg_manifest *m) {
     if (!m) return;
     for (size_t i = 0; i < m->n; i++) vg_free(m->entries[i].variants);
     vg_free(m->entries);
+    vg_strmap_free(&m->by_id);
+    vg_strmap_free(&m->by_variant);
     vg_arena_free(&m->arena);
     vg_free(m);
 }
@@ -480,34 +494,33 @@ vg_status vg_manifest_load(const char *path, vg_manifest **out, vg_error *err) {
     *out = NULL;
     if (!path) return vg_manifest_parse(vg_manifest_builtin, vg_manifest_builtin_len,
                                         "(built-in manifest)", out, err);
-    FILE *fp = fopen(path, "rb");
-    if (!fp) return vg_error_set(err, VG_EIO, path, 0, "cannot open");
+    /* Through vg_instream: a pipe is read, a device or a FIFO without a
+     * writer refused, gzip undone, and 64 MiB is the most ever held. */
+    vg_instream *in = NULL;
+    vg_status st = vg_instream_open(path, VG_IN_PIPE, (uint64_t)64 << 20,
+                                    "far more than a manifest of suites holds", &in, err);
+    if (st != VG_OK) return st;
     char *buf = NULL;
     size_t n = 0, cap = 0;
     for (;;) {
         if (vg_grow((void **)&buf, &cap, n + 65536, 1) != 0) {
-            fclose(fp);
+            vg_instream_close(in);
             vg_free(buf);
             return vg_error_set(err, VG_ENOMEM, path, 0, "out of memory");
         }
-        size_t got = fread(buf + n, 1, cap - n, fp);
-        n += got;
-        if (got == 0) break;
-        if (n > (64u << 20)) {
-            fclose(fp);
+        long got = vg_instream_read(in, buf + n, cap - n, err);
+        if (got < 0) {
+            vg_instream_close(in);
             vg_free(buf);
-            return vg_error_set(err, VG_ELIMIT, path, 0, "a manifest larger than 64 MiB");
+            return err->code;
         }
+        if (got == 0) break;
+        n += (size_t)got;
     }
-    int bad_read = ferror(fp);
-    fclose(fp);
-    if (bad_read) {
-        vg_free(buf);
-        return vg_error_set(err, VG_EIO, path, 0, "read failed");
-    }
+    vg_instream_close(in);
     /* A UTF-8 byte order mark from an editor is not part of the header. */
     size_t skip = n >= 3 && memcmp(buf, "\xEF\xBB\xBF", 3) == 0 ? 3 : 0;
-    vg_status st = vg_manifest_parse(buf + skip, n - skip, path, out, err);
+    st = vg_manifest_parse(buf + skip, n - skip, path, out, err);
     vg_free(buf);
     return st;
 }
@@ -519,7 +532,7 @@ const vg_suite_entry *vg_manifest_get(const vg_manifest *m, size_t i) {
 }
 
 const vg_suite_entry *vg_manifest_find(const vg_manifest *m, const char *id) {
-    for (size_t i = 0; m && id && i < m->n; i++)
-        if (strcmp(m->entries[i].e.id, id) == 0) return &m->entries[i].e;
-    return NULL;
+    if (!m || !id) return NULL;
+    size_t at = vg_strmap_get(&m->by_id, id, strlen(id));
+    return at == (size_t)-1 ? NULL : &m->entries[at].e;
 }

@@ -42,6 +42,11 @@ tar("relations.tar.gz", [("REL/1_group/R01 [x - y].txt", b"cat\tcats\ndog\tdogs\
                          ("REL/2_group/R02 [p - q].txt", b"go\twent\nsee\tsaw\n", "file")])
 open(os.path.join(srv, "page.html"), "wb").write(b"<html><body>Not here</body></html>\n")
 open(os.path.join(srv, "big.tsv"), "wb").write(alpha * 100)
+# Issue 29: a small gzip file inflating to 2 MB of pairs, and a split
+# analogy suite (questions and answers) in one archive.
+import gzip
+open(os.path.join(srv, "bomb.tsv.gz"), "wb").write(gzip.compress(alpha * 50000, 9))
+zipf("split.zip", [("msr/q.questions", b"a b c\ne f g\n"), ("msr/q.answers", b"d\nh\n")])
 PYEOF
 
 # The server: binds port 0, writes the port it got, serves $SRV.
@@ -85,6 +90,9 @@ fallback,second,,alpha.tsv,$U/alpha.tsv,,$A,,,
 nomember,v,similarity,alpha.tsv,$U/good.zip,pack/absent.tsv,,,,
 relations,v,analogy,REL/,$U/relations.tar.gz,REL/,,,relation,
 faraway,v,similarity,alpha.tsv,http://example.invalid/alpha.tsv,,,,,
+prefixed,v,similarity,alpha.tsv,http://127.0.0.1.example.invalid:$PORT/alpha.tsv,,,,,
+bomb,v,similarity,alpha.tsv,$U/bomb.tsv.gz,,,,,
+split,v,analogy,q.questions;q.answers,$U/split.zip,msr/q.questions;msr/q.answers,,,split,
 EOF
 F=( "$VG_BIN" fetch --manifest "$TMP/m.csv" --data "$DATA" )
 
@@ -209,6 +217,85 @@ PYEOF
 else
     skip "the openssl tool is not installed: the TLS check is not run (scripts/install-deps installs it)"
 fi
+
+# fetch-19 (issue 29): the loopback check parses the address: a name that
+# merely begins with "127." is anyone's domain, refused before any lookup.
+expect_status "fetch-19 http://127.0.0.1.example.invalid refused with --allow-http" 1 \
+    "${F[@]}" --allow-http prefixed
+expect_in "fetch-19 says why" "loopback host only" "$TMP/err"
+
+# fetch-20: the read check of a staged file keeps to --max-bytes: a
+# 1 kB gzip file inflating to 2 MB used to pass the limit there.
+expect_status "fetch-20 a staged file inflating past --max-bytes: exit 1" 1 \
+    "${F[@]}" --allow-http --max-bytes 100000 bomb
+expect_in "fetch-20 names the limit" "holds more than 100000 bytes once decompressed" "$TMP/err"
+check "fetch-20 nothing installed" test ! -e "$DATA/bomb"
+
+# fetch-21: a suite's files are installed in one step. The report: fetch
+# --force of a split suite failed after one file was replaced (the other's
+# place held a folder), leaving a mixed copy and a stale record. Now the
+# folder is replaced whole, what else it held is kept, and a failure at
+# the last step (test hook) leaves the old copy and record untouched.
+expect_status "fetch-21 split suite installed" 0 "${F[@]}" --allow-http split
+rm "$DATA/split/q.answers"
+mkdir -p "$DATA/split/q.answers" "$DATA/split/mine"
+echo keep > "$DATA/split/q.answers/x"
+echo "my notes" > "$DATA/split/mine/notes.txt"
+echo "stale" > "$DATA/split/q.questions"
+expect_status "fetch-21 --force over a folder in a file's place: exit 0" 0 \
+    "${F[@]}" --allow-http --force split
+check "fetch-21 both files are the new ones" cmp "$DATA/split/q.answers" <(printf 'd\nh\n')
+check "fetch-21 questions replaced" cmp "$DATA/split/q.questions" <(printf 'a b c\ne f g\n')
+check "fetch-21 the user's own files kept" test "$(cat "$DATA/split/mine/notes.txt")" = "my notes"
+check "fetch-21 the record names the installed digests" grep -q "$(sha256sum "$DATA/split/q.answers" | cut -d' ' -f1)" "$DATA/split/vecgauge-fetch.csv"
+cp -r "$DATA/split" "$TMP/split-before"
+echo "changed by hand" > "$DATA/split/q.questions"
+cp "$DATA/split/q.questions" "$TMP/split-before/q.questions"
+VECGAUGE_TEST_FAIL_INSTALL=1 expect_status "fetch-21 a failure at the install step: exit 1" 1 \
+    "${F[@]}" --allow-http --force split
+check "fetch-21 the old copy and its record untouched" diff -r "$TMP/split-before" "$DATA/split"
+if [ -z "$(find "$DATA" -maxdepth 1 -name '.fetch-*')" ]; then ok "fetch-21 no staging directory left"; else
+    not_ok "fetch-21 staging directories left: $(ls -a "$DATA")"; fi
+
+# fetch-22: --timeout counts the time without data over every address of
+# a suite: a server that accepts and never answers, behind three
+# addresses, used to cost the timeout three times (9.5 s for --timeout 3).
+# A local server started here; the bound is generous (the old behaviour
+# took at least 6 s, the new one about 2).
+"$PY" - "$TMP/stallport" > "$TMP/stall.log" 2>&1 <<'PYEOF' &
+import os, socket, sys, time
+s = socket.socket()
+s.bind(("127.0.0.1", 0))
+s.listen(64)
+with open(sys.argv[1] + ".tmp", "w") as f:
+    f.write(str(s.getsockname()[1]))
+os.rename(sys.argv[1] + ".tmp", sys.argv[1])
+held = []
+while True:
+    c, _ = s.accept()
+    held.append(c)      # never answered
+PYEOF
+STALL_PID=$!
+for _ in $(seq 1 100); do [ -s "$TMP/stallport" ] && break; sleep 0.1; done
+if [ -s "$TMP/stallport" ]; then
+    SU="http://127.0.0.1:$(cat "$TMP/stallport")"
+    printf 'id,variant,task,files,url\nstalled,a,similarity,alpha.tsv,%s/a.tsv\nstalled,b,,alpha.tsv,%s/b.tsv\nstalled,c,,alpha.tsv,%s/c.tsv\n' \
+        "$SU" "$SU" "$SU" > "$TMP/stall.csv"
+    t0=$(date +%s.%N)
+    expect_status "fetch-22 a stalled server: exit 1" 1 \
+        "$VG_BIN" fetch --manifest "$TMP/stall.csv" --data "$DATA" --allow-http --timeout 2 stalled
+    t1=$(date +%s.%N)
+    expect_in "fetch-22 says no data came" "no data for 2 s" "$TMP/err"
+    if "$PY" -c "import sys; sys.exit(0 if float(sys.argv[2]) - float(sys.argv[1]) < 5.5 else 1)" "$t0" "$t1"; then
+        ok "fetch-22 --timeout 2 over three addresses ends within 5.5 s"
+    else
+        not_ok "fetch-22 took $("$PY" -c "import sys; print(float(sys.argv[2]) - float(sys.argv[1]))" "$t0" "$t1") s"
+    fi
+else
+    skip "the stalled server did not start: $(head -c 200 "$TMP/stall.log")"
+fi
+kill "$STALL_PID" 2>/dev/null
+wait "$STALL_PID" 2>/dev/null
 
 # fetch-17: usage errors.
 expect_status "fetch-17 no id: usage error 2" 2 "${F[@]}"
