@@ -67,12 +67,13 @@ VECTORS_O = vectors/vectors.o vectors/load.o vectors/detect.o vectors/source.o \
             vectors/npy.o vectors/vocab.o vectors/batch.o
 SUITES_O  = suites/suite.o suites/fields.o suites/pairs.o suites/analogies.o \
             suites/relation.o suites/split.o suites/groups.o suites/manifest.o \
-            suites/datadir.o gen/manifest_csv.o
+            suites/datadir.o suites/pairids.o gen/manifest_csv.o
 FETCH_O   = fetch/download.o fetch/extract.o fetch/fetch.o
 SCORE_O   = score/similarity.o score/analogy.o score/analogy_kernel.o score/missing.o
 STATS_O   = stats/rank.o stats/correlation.o stats/kendall.o stats/interval.o \
             stats/resample.o stats/corrboot.o stats/agreement.o \
-            stats/paired_correlation.o stats/paired_counts.o stats/wilson.o
+            stats/paired_correlation.o stats/paired_counts.o stats/wilson.o \
+            stats/pairboot.o
 EVAL_O    = eval/results.o eval/evaluate.o eval/similarity_rows.o eval/agreement.o \
             eval/analogy_rows.o
 COMPARE_O = compare/compare.o compare/compare_similarity.o compare/compare_analogy.o \

@@ -162,6 +162,84 @@ VG_API vg_status vg_stats_corr_bootstrap(const double *x, const double *y, size_
                                          double *replicates, double *jackknife,
                                          vg_error *err);
 
+/* ---- the pair bootstrap (analogy questions that share word pairs) ------- */
+
+/* Analogy questions are built from a few word pairs: in a section, every
+ * question a : b :: c : d takes one pair as (a, b), its row, and another
+ * as (c, d), its column, so questions that share a pair succeed or fail
+ * together. The pair bootstrap resamples the pairs, not the questions:
+ * Owen's (2007) pigeonhole bootstrap for crossed designs ("The pigeonhole
+ * bootstrap", Annals of Applied Statistics 1(2)), within each stratum
+ * (section): row levels and column levels are drawn independently with
+ * replacement, and every question counts with the product of its row's
+ * and its column's multiplicities. A question whose row and column no
+ * other question of its stratum uses is isolated: it is drawn from a pool
+ * of its own with the stratum's other isolated questions, so that a
+ * design where nothing is shared is the ordinary bootstrap over
+ * questions (stratified by stratum). Owen shows the pigeonhole variance
+ * mildly conservative (biased upwards) for a mean in crossed random
+ * effects models, however unbalanced. */
+typedef struct vg_pairboot_design vg_pairboot_design;
+
+/* The design of n questions: question i is in stratum[i] (< n_strata),
+ * takes row label row[i] and column label col[i] (any numbers; the same
+ * label in two strata is two levels). On success *out owns a new design
+ * (free with vg_pairboot_design_free). VG_EINVAL for a stratum out of
+ * range, VG_ELIMIT for 2^32 - 1 questions or more, VG_ENOMEM. */
+VG_API vg_status vg_pairboot_design_new(const uint32_t *stratum, size_t n_strata,
+                                        const uint32_t *row, const uint32_t *col, size_t n,
+                                        vg_pairboot_design **out, vg_error *err);
+
+/* NULL does nothing. */
+VG_API void vg_pairboot_design_free(vg_pairboot_design *d);
+
+VG_API size_t vg_pairboot_design_strata(const vg_pairboot_design *d);
+
+/* Row levels, column levels and isolated questions of stratum s (any
+ * pointer may be NULL). */
+VG_API void vg_pairboot_design_levels(const vg_pairboot_design *d, size_t s, size_t *rows,
+                                      size_t *cols, size_t *isolated);
+
+typedef struct vg_pairboot_options {
+    size_t replicates;   /* B */
+    uint64_t seed;       /* the user's seed */
+    uint64_t stream;     /* what is resampled (inside vecgauge: the suite id) */
+    unsigned threads;    /* 0: one per online CPU; results never depend on it */
+} vg_pairboot_options;
+
+/* B = VG_DEFAULT_BOOTSTRAP, seed VG_DEFAULT_SEED, stream 0, threads 0. */
+VG_API void vg_pairboot_options_init(vg_pairboot_options *opt);
+
+/* The weight of every question in replicate r, into weights[0..n): stratum
+ * s draws from a generator seeded by (seed, stream + s * 0x9e3779b97f4a7c15,
+ * r) alone (src/stats/resample.h), first its R row multiplicities, then
+ * its C column ones, then its I isolated ones (n draws out of n each,
+ * vg_resample_counts); a question weighs w[row] v[col], an isolated one
+ * u[its index]. Levels are numbered in order of first appearance, isolated
+ * questions in question order. VG_ENOMEM. */
+VG_API vg_status vg_pairboot_weights(const vg_pairboot_design *d, uint64_t seed,
+                                     uint64_t stream, size_t replicate, double *weights,
+                                     vg_error *err);
+
+/* The multiplicities behind those weights, for stratum s of replicate r:
+ * w[0..R) over the row levels, v[0..C) over the column levels, u[0..I)
+ * over the isolated questions (vg_pairboot_design_levels gives R, C, I). */
+VG_API void vg_pairboot_draws(const vg_pairboot_design *d, uint64_t seed, uint64_t stream,
+                              size_t replicate, size_t s, uint32_t *w, uint32_t *v, uint32_t *u);
+
+/* For each replicate r < B, stratum s and value column j < k, the
+ * weighted total sums[(r * n_strata + s) * k + j] = sum over the questions
+ * q of s of weight_r(q) x[j][q] (x[j] holds n small integers: 1 for a
+ * right answer, 1 for a question used, ...). A ratio of two columns over
+ * any union of strata is then that subset's replicate statistic, e.g.
+ * accuracy = right / used. Computed as w' T v per stratum (T the row x
+ * column table of totals; dgemm over blocks of replicates): the sums are
+ * exact integers, so they do not depend on threads. Allocates its
+ * workspace. VG_ENOMEM. */
+VG_API vg_status vg_pairboot_sums(const vg_pairboot_design *d, const vg_pairboot_options *opt,
+                                  const unsigned char *const *x, size_t k, double *sums,
+                                  vg_error *err);
+
 /* ---- agreement between raters ------------------------------------------ */
 
 /* How well human raters agree with each other on a suite. */

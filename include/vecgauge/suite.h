@@ -170,6 +170,24 @@ VG_API vg_status vg_analogy_layout_parse(const char *name, vg_analogy_layout *ou
  * part without '=', VG_ENOMEM on allocation failure. */
 VG_API vg_status vg_suite_set_groups(vg_suite *s, const char *rule, vg_error *err);
 
+/* The word pairs of each analogy question, for the pair bootstrap
+ * (stats.h): stratum[i] gets question i's section (0 without sections),
+ * row[i] the number of the pair (a, b) it takes, col[i] that of (c, d),
+ * d its first accepted answer. Equal words in one section are one pair;
+ * numbers run from 0 in order of first appearance, rows and columns
+ * sharing one numbering (in Google's sections and in relation folders,
+ * where a question pairs two lines of one relation file, the same pair
+ * serves as a row in some questions and as a column in others). stratum
+ * may be NULL. VG_EINVAL for a similarity suite, VG_ENOMEM. */
+VG_API vg_status vg_suite_question_pairs(const vg_suite *s, uint32_t *stratum, uint32_t *row,
+                                         uint32_t *col, vg_error *err);
+
+/* The same from words: question i is words[4 i .. 4 i + 3] = a, b, c, d
+ * in stratum[i] (NULL: all in one). VG_ELIMIT past 2^31 questions,
+ * VG_ENOMEM. */
+VG_API vg_status vg_pair_ids(size_t n, const char *const *words, const uint32_t *stratum,
+                             uint32_t *row, uint32_t *col, vg_error *err);
+
 /* ---- The manifest of known public suites --------------------------------
  * benchmarks-manifest/suites.csv (compiled into the library; see its
  * README.md for the columns) describes each known suite: one row per

@@ -10,6 +10,7 @@
  *   vgstat intervals REPS_FILE JACK_FILE THETA LEVEL
  *   vgstat fisher spearman|pearson|kendall R N LEVEL
  *   vgstat agreement PAIRS_FILE COL_RATERS
+ *   vgstat pairboot DESIGN_FILE B SEED THREADS [STREAM_NAME]
  * FILE holds one "x y" pair of numbers per line; y may be "nan" (an item
  * not scored: resampled, but left out of the statistics). STREAM_NAME
  * names the resampling stream as a suite id would (default "vgstat");
@@ -26,6 +27,11 @@
  *     (one per line) with jackknife values JACK_FILE: "pct_low pct_high
  *     z0 accel bca_low bca_high replicates"
  *   agreement: "value columns columns_used min_ratings max_ratings n_items"
+ *   pairboot: DESIGN_FILE holds one question a line, "stratum row col x1
+ *     .. xk" (integers); prints "levels s R C I" per stratum, then per
+ *     replicate r and stratum s "draw r s" with the row, column and
+ *     isolated multiplicities separated by "|", per replicate "weights r"
+ *     and the n question weights, and "sums r s" with the k totals
  */
 #include <stdio.h>
 #include <stdlib.h>
@@ -207,6 +213,112 @@ static int cmd_agreement(char **argv) {
     return 0;
 }
 
+static int cmd_pairboot(int argc, char **argv) {
+    FILE *fp = fopen(argv[2], "r");
+    if (!fp) {
+        perror(argv[2]);
+        return 1;
+    }
+    size_t n = 0, cap = 0, k = 0, S = 0;
+    uint32_t *st = NULL, *row = NULL, *col = NULL;
+    unsigned char *xs = NULL; /* n * 16 */
+    char line[4096];
+    while (fgets(line, sizeof line, fp)) {
+        if (n == cap) {
+            cap = cap ? 2 * cap : 256;
+            st = realloc(st, cap * sizeof *st);
+            row = realloc(row, cap * sizeof *row);
+            col = realloc(col, cap * sizeof *col);
+            xs = realloc(xs, cap * 16);
+            if (!st || !row || !col || !xs) return 1;
+        }
+        char *p = line, *e;
+        unsigned long v[19];
+        size_t m = 0;
+        while (m < 19 && (v[m] = strtoul(p, &e, 10), e != p)) {
+            p = e;
+            m++;
+        }
+        if (m < 3) continue;
+        if (k == 0) k = m - 3;
+        if (m - 3 != k || k > 16) return 2;
+        st[n] = (uint32_t)v[0];
+        row[n] = (uint32_t)v[1];
+        col[n] = (uint32_t)v[2];
+        for (size_t j = 0; j < k; j++) xs[n * 16 + j] = (unsigned char)v[3 + j];
+        if (st[n] + 1 > S) S = st[n] + 1;
+        n++;
+    }
+    fclose(fp);
+    vg_pairboot_options opt;
+    vg_pairboot_options_init(&opt);
+    opt.replicates = strtoull(argv[3], NULL, 10);
+    opt.seed = strtoull(argv[4], NULL, 10);
+    opt.threads = (unsigned)strtoul(argv[5], NULL, 10);
+    opt.stream = vg_resample_stream(argc > 6 ? argv[6] : "vgstat", "");
+    vg_error err;
+    vg_pairboot_design *d;
+    if (vg_pairboot_design_new(st, S, row, col, n, &d, &err) != VG_OK) {
+        fprintf(stderr, "vgstat: %s\n", err.message);
+        return 1;
+    }
+    unsigned char **x = calloc(k + 1, sizeof *x);
+    double *sums = calloc(opt.replicates * S * k + 1, sizeof *sums);
+    double *wq = calloc(n + 1, sizeof *wq);
+    uint32_t *w = calloc(n + 1, sizeof *w), *v = calloc(n + 1, sizeof *v), *u = calloc(n + 1, sizeof *u);
+    if (!x || !sums || !wq || !w || !v || !u) return 1;
+    for (size_t j = 0; j < k; j++) {
+        x[j] = calloc(n + 1, 1);
+        if (!x[j]) return 1;
+        for (size_t i = 0; i < n; i++) x[j][i] = xs[i * 16 + j];
+    }
+    if (vg_pairboot_sums(d, &opt, (const unsigned char *const *)x, k, sums, &err) != VG_OK) {
+        fprintf(stderr, "vgstat: %s\n", err.message);
+        return 1;
+    }
+    for (size_t s = 0; s < S; s++) {
+        size_t R, C, I;
+        vg_pairboot_design_levels(d, s, &R, &C, &I);
+        printf("levels %zu %zu %zu %zu\n", s, R, C, I);
+    }
+    for (size_t r = 0; r < opt.replicates; r++) {
+        for (size_t s = 0; s < S; s++) {
+            size_t R, C, I;
+            vg_pairboot_design_levels(d, s, &R, &C, &I);
+            vg_pairboot_draws(d, opt.seed, opt.stream, r, s, w, v, u);
+            printf("draw %zu %zu", r, s);
+            for (size_t i = 0; i < R; i++) printf(" %u", w[i]);
+            printf(" |");
+            for (size_t i = 0; i < C; i++) printf(" %u", v[i]);
+            printf(" |");
+            for (size_t i = 0; i < I; i++) printf(" %u", u[i]);
+            printf("\n");
+        }
+        if (vg_pairboot_weights(d, opt.seed, opt.stream, r, wq, &err) != VG_OK) return 1;
+        printf("weights %zu", r);
+        for (size_t i = 0; i < n; i++) printf(" %.17g", wq[i]);
+        printf("\n");
+        for (size_t s = 0; s < S; s++) {
+            printf("sums %zu %zu", r, s);
+            for (size_t j = 0; j < k; j++) printf(" %.17g", sums[(r * S + s) * k + j]);
+            printf("\n");
+        }
+    }
+    for (size_t j = 0; j < k; j++) free(x[j]);
+    free(x);
+    free(sums);
+    free(wq);
+    free(w);
+    free(v);
+    free(u);
+    free(st);
+    free(row);
+    free(col);
+    free(xs);
+    vg_pairboot_design_free(d);
+    return 0;
+}
+
 int main(int argc, char **argv) {
     if (argc < 3) return usage();
     const char *stat = argv[1];
@@ -215,6 +327,7 @@ int main(int argc, char **argv) {
     if (strcmp(stat, "indices") == 0) return argc >= 5 ? cmd_indices(argc, argv) : usage();
     if (strcmp(stat, "intervals") == 0) return argc >= 6 ? cmd_intervals(argv) : usage();
     if (strcmp(stat, "agreement") == 0) return argc >= 4 ? cmd_agreement(argv) : usage();
+    if (strcmp(stat, "pairboot") == 0) return argc >= 6 ? cmd_pairboot(argc, argv) : usage();
     if (strcmp(stat, "fisher") == 0) {
         vg_corr k;
         if (argc < 6 || parse_corr(argv[2], &k) != 0) return usage();

@@ -392,6 +392,36 @@ static void shared_google(void **state) {
     assert_int_equal(s->stats.duplicates, 171);
     assert_string_equal(s->questions[0].a, "Athens");
     assert_string_equal(s->questions[0].answers[0], "Iraq");
+
+    /* shared-google-pairs: the word pairs each section is built from,
+     * counted from the file with a few lines of Python (a set of (a, b)
+     * and of (c, d) per section; the same 23 ... 41 pairs serve as rows
+     * and as columns; 573 in all, the issue's "about 550"). */
+    static const size_t pairs[14] = {23, 116, 30, 68, 23, 32, 29, 37, 34, 33, 41, 40, 37, 30};
+    uint32_t *st = calloc(s->n_items, sizeof *st), *row = calloc(s->n_items, sizeof *row);
+    uint32_t *col = calloc(s->n_items, sizeof *col);
+    assert_non_null(st);
+    assert_non_null(row);
+    assert_non_null(col);
+    vg_error err;
+    assert_vg_ok(vg_suite_question_pairs(s, st, row, col, &err), &err);
+    vg_pairboot_design *d;
+    assert_vg_ok(vg_pairboot_design_new(st, s->n_sections, row, col, s->n_items, &d, &err), &err);
+    for (size_t k = 0; k < 14; k++) {
+        size_t R, C, I;
+        vg_pairboot_design_levels(d, k, &R, &C, &I);
+        assert_int_equal(R, pairs[k]);
+        assert_int_equal(C, pairs[k]);
+        assert_int_equal(I, 0);
+        /* A pair is a row in some questions and a column in others: one
+         * numbering. */
+        for (size_t i = s->sections[k].first; i < s->sections[k].first + s->sections[k].count; i++)
+            assert_int_equal(st[i], k);
+    }
+    vg_pairboot_design_free(d);
+    free(st);
+    free(row);
+    free(col);
     vg_suite_free(s);
 }
 
@@ -412,6 +442,32 @@ static void shared_msr(void **state) {
     assert_int_equal(apos, 1000);
     assert_int_equal(s->stats.duplicates, 0);
     assert_non_null(strstr(s->layout_detected, "CRLF"));
+
+    /* shared-msr-pairs: 1598 distinct (a, b) and 1598 distinct (c, d)
+     * pairs in the one stratum, counted from the file with Python. */
+    uint32_t *row = calloc(s->n_items, sizeof *row), *col = calloc(s->n_items, sizeof *col);
+    assert_non_null(row);
+    assert_non_null(col);
+    vg_error err;
+    assert_vg_ok(vg_suite_question_pairs(s, NULL, row, col, &err), &err);
+    uint32_t *zero = calloc(s->n_items, sizeof *zero);
+    assert_non_null(zero);
+    vg_pairboot_design *d;
+    assert_vg_ok(vg_pairboot_design_new(zero, 1, row, col, s->n_items, &d, &err), &err);
+    size_t R, C, I;
+    vg_pairboot_design_levels(d, 0, &R, &C, &I);
+    assert_int_equal(R + C + I > 0, 1);
+    size_t rows = 0, cols = 0;
+    for (size_t i = 0; i < s->n_items; i++) {
+        rows = row[i] + 1 > rows ? row[i] + 1 : rows;
+        cols = col[i] + 1 > cols ? col[i] + 1 : cols;
+    }
+    /* Rows and columns share one numbering: 1598 pairs in all. */
+    assert_int_equal(rows > cols ? rows : cols, 1598);
+    vg_pairboot_design_free(d);
+    free(zero);
+    free(row);
+    free(col);
     vg_suite_free(s);
 }
 
