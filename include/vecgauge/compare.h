@@ -48,6 +48,12 @@ typedef struct vg_paired_suite {
                                        arrays of n_items values, 1 right,
                                        0 wrong, -1 not answered; an entry is
                                        NULL when method m was not run */
+    /* analogy: the word pairs of each question, for the pair bootstrap
+     * (vg_suite_question_pairs); row_pair and col_pair NULL: every
+     * question has pairs of its own (the bootstrap over questions). */
+    const uint32_t *stratum;        /* n_items sections numbered from 0, or NULL: one */
+    size_t n_strata;
+    const uint32_t *row_pair, *col_pair; /* n_items each */
 } vg_paired_suite;
 
 typedef struct vg_paired_items {
@@ -115,7 +121,7 @@ typedef struct vg_comparison {
     double score_a, score_b; /* rho or accuracy (0..1) on those items */
     double diff;             /* score_a - score_b */
     double diff_low, diff_high; /* interval for diff at options.level */
-    const char *interval;    /* "bca", "percentile", or "" with no interval */
+    const char *interval;    /* "bca", "percentile", "pair-bootstrap", or "" */
     size_t replicates;       /* bootstrap replicates with a defined difference */
     double p_bootstrap;      /* two-sided bootstrap p of diff = 0 (NaN if B = 0) */
     double r_ab;             /* similarity: Spearman between a's and b's cosines */
@@ -125,7 +131,8 @@ typedef struct vg_comparison {
     const char *test;        /* the test behind p_value: "bootstrap",
                                 "steiger-z1-bw" (Z1* with Spearman's
                                 variance; "steiger-z1" in files written
-                                before it), "mcnemar-exact" or "" (none) */
+                                before it), "pair-bootstrap", "mcnemar-exact"
+                                or "" (none) */
     double p_value;          /* that test's p (NaN when none is possible) */
     double p_holm;           /* Holm-adjusted over every row's p_value */
     int significant;         /* p_holm <= alpha */
@@ -137,7 +144,7 @@ typedef struct vg_compared_score {
     size_t suite, set;
     const char *metric;
     double value, low, high; /* NaN when undefined or B = 0 */
-    const char *interval;    /* "bca", "percentile" or "" */
+    const char *interval;    /* "bca", "percentile", "pair-bootstrap" or "" */
     size_t n;                /* items behind value */
 } vg_compared_score;
 
@@ -191,16 +198,25 @@ typedef struct vg_comparisons {
  * same difference analytically from rho_a, rho_b and r_ab = Spearman's
  * rho between the two sets' cosines; in as-is mode it uses the items
  * both sets cover.
- * Analogy: accuracy per method (3CosAdd alone by default); McNemar's
- * exact test on the questions both sets answered, and the same paired
- * bootstrap of the accuracy difference (same streams).
- * The test behind p_value: in common mode Steiger's Z1* for similarity
- * (applied to Spearman's rho as is common practice, e.g. Rastogi, Van
- * Durme and Arora 2015, from memory; with Spearman's variance, since
- * Pearson's makes it reject too often) and McNemar for analogy, both
- * analytic, so that Holm's adjustment over many suites and pairs is not
- * held back by the 1 / (B + 1) floor of a bootstrap p; in as-is mode the
- * bootstrap (Steiger and McNemar then cover other items than the scores).
+ * Analogy: accuracy per method (3CosAdd alone by default). The test is
+ * the paired pair bootstrap: replicate r weighs every question as
+ * vg_pairboot_sums does on stream (seed, suite id) (Owen's 2007
+ * pigeonhole bootstrap over each section's word pairs; the draws of the
+ * per-set intervals of a run), the same weights for both sets; the
+ * difference of the weighted accuracies is taken replicate by replicate
+ * (as (right_a - right_b) / used when both sets use the same questions).
+ * Its interval is the percentile one ("pair-bootstrap"); p_value is
+ * 2 Phi(-|d| / sd*), sd* the standard deviation of the replicate
+ * differences, which unlike the shifted p_bootstrap (also given) is not
+ * held at 1 / (B + 1). McNemar's exact test on the questions both sets
+ * answered is shown beside it: it treats questions that share a word pair
+ * as independent, and is far too confident; with B = 0 it is the test.
+ * Similarity, in common mode: Steiger's Z1* (applied to Spearman's rho as
+ * is common practice, e.g. Rastogi, Van Durme and Arora 2015, from
+ * memory; with Spearman's variance, since Pearson's makes it reject too
+ * often), analytic, so that Holm's adjustment over many suites and pairs
+ * is not held back by the 1 / (B + 1) floor of a bootstrap p; in as-is
+ * mode the bootstrap (Steiger then covers other items than the scores).
  * Holm's (1979) adjustment runs over every row's p_value.
  *
  * Deterministic: the same input and options give the same table for any
@@ -275,6 +291,8 @@ typedef struct vg_saved_suite {
     double *rating;          /* similarity: n_items */
     char **sha256;           /* from run.json: the suite files' digests */
     size_t n_files;
+    char **sections;         /* n_items: each item's subset in items.csv ("" for
+                                none); NULL when items.csv has no such column */
 } vg_saved_suite;
 
 /* A set's headline score on a suite, from scores.csv (or, for an analogy

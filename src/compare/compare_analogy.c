@@ -1,81 +1,78 @@
 /* compare_analogy.c - paired comparisons of analogy accuracy on one suite.
  * Part of vecgauge; MIT licence, see LICENSE.
  *
- * Replicate r draws the items of the suite's resampling stream exactly
- * as the correlation bootstrap does (vg_resample_seed, vg_resample_counts
- * on (seed, suite id, r)), so the similarity and analogy comparisons of a
- * run, and every set, share their resamples. Each replicate's accuracy is
- * a weighted mean of 0/1 values, computed for every set from one draw.
+ * The test is the pair bootstrap (vg_pairboot_sums; Owen 2007, the
+ * pigeonhole bootstrap over each section's word pairs) run on both sets
+ * at once: replicate r gives every question one weight, the same for
+ * every set, drawn on the suite's stream exactly as the per-set
+ * intervals of a run are (vg_eval_analogy_rows), so the difference is
+ * taken under the same pair draws. Questions that share a pair are not
+ * independent trials, so McNemar's exact test, which counts them as such,
+ * is only shown beside it.
  */
+#include <gsl/gsl_cdf.h>
+#include <gsl/gsl_statistics_double.h>
 #include <math.h>
+#include <stdlib.h>
 #include <string.h>
 
 #include "../common/alloc.h"
-#include "../common/threads.h"
 #include "../stats/resample.h"
 #include "compare_impl.h"
 #include "vecgauge/paired.h"
 #include "vecgauge/stats.h"
 
-typedef struct ana_job {
-    size_t n, B, ns;
-    uint64_t seed, stream;
-    const signed char *const *x;   /* ns: correctness, NULL for sets not compared */
-    const unsigned char *const *u; /* ns: item used for that set */
-    double *reps;                  /* ns * B */
-    uint32_t **counts;             /* per thread, n */
-    gsl_rng **rng;                 /* per thread */
-} ana_job;
-
-/* Thread t: replicates [B t / T, B (t + 1) / T). */
-static void ana_worker(void *ctx, unsigned t, unsigned T) {
-    ana_job *J = ctx;
-    uint32_t *c = J->counts[t];
-    for (size_t r = J->B * t / T; r < J->B * (t + 1) / T; r++) {
-        memset(c, 0, J->n * sizeof *c);
-        vg_resample_seed(J->rng[t], J->seed, J->stream, r);
-        vg_resample_counts(J->rng[t], J->n, c);
-        for (size_t s = 0; s < J->ns; s++) {
-            if (!J->x[s]) continue;
-            uint64_t right = 0, total = 0;
-            for (size_t i = 0; i < J->n; i++)
-                if (J->u[s][i]) {
-                    total += c[i];
-                    right += J->x[s][i] == 1 ? c[i] : 0;
-                }
-            J->reps[s * J->B + r] = total ? (double)right / (double)total : NAN;
-        }
-    }
+static int cmp_double(const void *a, const void *b) {
+    double x = *(const double *)a, y = *(const double *)b;
+    return (x > y) - (x < y);
 }
 
-/* The bootstrap replicates of every compared set's accuracy. -1 when out
- * of memory. */
-static int ana_bootstrap(ana_job *J, unsigned threads) {
-    unsigned T = vg_threads_resolve(threads);
-    if (T > J->B) T = (unsigned)J->B;
-    J->counts = vg_calloc(T, sizeof *J->counts);
-    J->rng = vg_calloc(T, sizeof *J->rng);
-    int rc = J->counts && J->rng ? 0 : -1;
-    for (unsigned t = 0; rc == 0 && t < T; t++) {
-        J->counts[t] = vg_calloc(J->n ? J->n : 1, sizeof **J->counts);
-        J->rng[t] = vg_resample_rng_alloc();
-        if (!J->counts[t] || !J->rng[t]) rc = -1;
+/* Percentile interval (GSL quantile, Hyndman and Fan 1996 definition 7)
+ * and standard deviation of the finite values of x[0..n), which is
+ * reordered. Returns the number of finite values. */
+static size_t summarise(double *x, size_t n, double level, double *low, double *high, double *sd) {
+    size_t m = 0;
+    for (size_t i = 0; i < n; i++)
+        if (!isnan(x[i])) x[m++] = x[i];
+    *low = *high = *sd = NAN;
+    if (m == 0) return 0;
+    *sd = m > 1 ? gsl_stats_sd(x, 1, m) : NAN;
+    qsort(x, m, sizeof *x, cmp_double);
+    *low = gsl_stats_quantile_from_sorted_data(x, 1, m, (1 - level) / 2);
+    *high = gsl_stats_quantile_from_sorted_data(x, 1, m, (1 + level) / 2);
+    return m;
+}
+
+/* The design of suite s's questions. Without pair identities every
+ * question has pairs of its own: the bootstrap over questions. */
+static vg_status analogy_design(const vg_paired_suite *s, vg_pairboot_design **out,
+                                vg_error *err) {
+    size_t n = s->n_items, n1 = n ? n : 1;
+    int pairs = s->row_pair && s->col_pair;
+    uint32_t *z = vg_calloc(n1, sizeof *z), *r = NULL, *c = NULL;
+    if (!pairs) {
+        r = vg_calloc(n1, sizeof *r);
+        c = vg_calloc(n1, sizeof *c);
     }
-    if (rc == 0) vg_parallel(T, ana_worker, J);
-    for (unsigned t = 0; J->counts && J->rng && t < T; t++) {
-        vg_free(J->counts[t]);
-        if (J->rng[t]) gsl_rng_free(J->rng[t]);
+    vg_status st;
+    if (!z || (!pairs && (!r || !c))) {
+        st = vg_error_set(err, VG_ENOMEM, NULL, 0, "out of memory");
+    } else {
+        for (size_t i = 0; !pairs && i < n; i++) r[i] = c[i] = (uint32_t)i;
+        int strata = pairs && s->stratum;
+        st = vg_pairboot_design_new(strata ? s->stratum : z, strata ? s->n_strata : 1,
+                                    pairs ? s->row_pair : r, pairs ? s->col_pair : c, n, out,
+                                    err);
     }
-    vg_free(J->counts);
-    vg_free(J->rng);
-    J->counts = NULL;
-    J->rng = NULL;
-    return rc;
+    vg_free(z);
+    vg_free(r);
+    vg_free(c);
+    return st;
 }
 
 /* One method on one suite. */
 static vg_status compare_method(vg_cmp_build *b, const vg_paired_items *in, size_t k,
-                                vg_method m, vg_error *err) {
+                                vg_method m, const vg_pairboot_design *d, vg_error *err) {
     const vg_paired_suite *s = &in->suites[k];
     const vg_compare_options *o = &b->c->options;
     size_t n = s->n_items, ns = in->n_sets, B = o->replicates, n1 = n ? n : 1;
@@ -87,14 +84,16 @@ static vg_status compare_method(vg_cmp_build *b, const vg_paired_items *in, size
     vg_status st = VG_OK;
     const signed char **x = vg_calloc(ns, sizeof *x);
     unsigned char **u = vg_calloc(ns, sizeof *u);
+    unsigned char **cols = vg_calloc(2 * ns, sizeof *cols); /* right, used per set */
+    size_t *col_of = vg_calloc(ns, sizeof *col_of);
     unsigned char *common = vg_calloc(n1, 1);
+    size_t *used = vg_calloc(ns, sizeof *used), *right = vg_calloc(ns, sizeof *right);
     double *acc = vg_calloc(ns, sizeof *acc);
-    double *reps = vg_calloc(ns * (B ? B : 1), sizeof *reps);
-    double *jack = vg_calloc(ns * n1, sizeof *jack);
-    size_t *used = vg_calloc(ns, sizeof *used);
-    double *d = vg_calloc(B ? B : 1, sizeof *d), *dj = vg_calloc(n1, sizeof *dj);
-    double *tmp = vg_calloc(B ? B : 1, sizeof *tmp);
-    if (!x || !u || !common || !acc || !reps || !jack || !used || !d || !dj || !tmp) goto oom;
+    size_t S = vg_pairboot_design_strata(d);
+    double *sums = NULL, *tot = NULL, *tmp = vg_calloc(B ? B : 1, sizeof *tmp);
+    double *d_r = vg_calloc(B ? B : 1, sizeof *d_r);
+    if (!x || !u || !cols || !col_of || !common || !used || !right || !acc || !tmp || !d_r)
+        goto oom;
 
     size_t n_common = 0;
     for (size_t i = 0; i < n; i++) {
@@ -104,6 +103,7 @@ static vg_status compare_method(vg_cmp_build *b, const vg_paired_items *in, size
         common[i] = (unsigned char)all;
         n_common += all;
     }
+    size_t kc = 0;
     for (size_t j = 0; j < ns; j++) {
         const signed char *cj = s->correct[j * VG_METHOD_COUNT + m];
         size_t cov = 0;
@@ -112,29 +112,35 @@ static vg_status compare_method(vg_cmp_build *b, const vg_paired_items *in, size
         if (b->c->n_scores == 0 || b->c->scores[b->c->n_scores - 1].suite != k)
             b->c->covered[k * ns + j] = cov;
         if (!b->in_pair[j]) continue;
-        x[j] = s->correct[j * VG_METHOD_COUNT + m];
-        if (!(u[j] = vg_calloc(n1, 1))) goto oom;
-        size_t right = 0;
+        x[j] = cj;
+        col_of[j] = kc;
+        if (!(u[j] = vg_calloc(n1, 1)) || !(cols[kc] = vg_calloc(n1, 1)) ||
+            !(cols[kc + 1] = vg_calloc(n1, 1)))
+            goto oom;
         for (size_t i = 0; i < n; i++) {
-            u[j][i] = (unsigned char)(x[j][i] >= 0 && (as_is || common[i]));
+            u[j][i] = (unsigned char)(cj[i] >= 0 && (as_is || common[i]));
             used[j] += u[j][i];
-            right += u[j][i] && x[j][i] == 1;
+            right[j] += u[j][i] && cj[i] == 1;
+            cols[kc][i] = (unsigned char)(u[j][i] && cj[i] == 1);
+            cols[kc + 1][i] = u[j][i];
         }
-        acc[j] = used[j] ? (double)right / (double)used[j] : NAN;
-        /* Jackknife: leaving out a used item removes its 0/1 from the
-         * mean; leaving out an unused one changes nothing. */
-        for (size_t i = 0; i < n; i++) {
-            double v = acc[j];
-            if (u[j][i])
-                v = used[j] > 1 ? ((double)right - (x[j][i] == 1)) / (double)(used[j] - 1) : NAN;
-            jack[j * n + i] = v;
-        }
+        acc[j] = used[j] ? (double)right[j] / (double)used[j] : NAN;
+        kc += 2;
     }
-    if (B > 0) {
-        ana_job J = {.n = n, .B = B, .ns = ns, .seed = o->seed,
-                     .stream = vg_resample_stream(s->id, ""),
-                     .x = x, .u = (const unsigned char *const *)u, .reps = reps};
-        if (ana_bootstrap(&J, o->threads) != 0) goto oom;
+    if (B > 0 && kc > 0) {
+        sums = vg_calloc(B * S * kc, sizeof *sums);
+        tot = vg_calloc(B * kc, sizeof *tot);
+        if (!sums || !tot) goto oom;
+        vg_pairboot_options po = {.replicates = B, .seed = o->seed,
+                                  .stream = vg_resample_stream(s->id, ""), .threads = o->threads};
+        if ((st = vg_pairboot_sums(d, &po, (const unsigned char *const *)cols, kc, sums, err)) !=
+            VG_OK)
+            goto done;
+        /* The whole suite's totals per replicate: the sum over its
+         * sections. */
+        for (size_t r = 0; r < B; r++)
+            for (size_t t = 0; t < S; t++)
+                for (size_t j = 0; j < kc; j++) tot[r * kc + j] += sums[(r * S + t) * kc + j];
     }
     const char *metric = vg_method_name(m);
     for (size_t j = 0; j < ns; j++) {
@@ -143,11 +149,15 @@ static vg_status compare_method(vg_cmp_build *b, const vg_paired_items *in, size
                                 .n = used[j]};
         sc.low = sc.high = NAN;
         sc.interval = "";
-        if (B > 0) {
-            memcpy(tmp, reps + j * B, B * sizeof *tmp);
-            vg_boot_summary bs;
-            vg_stats_boot_summary(tmp, B, acc[j], jack + j * n, n, o->level, &bs);
-            vg_cmp_interval(&bs, &sc.low, &sc.high, &sc.interval);
+        if (tot) {
+            size_t c0 = col_of[j];
+            for (size_t r = 0; r < B; r++) {
+                double ur = tot[r * kc + c0 + 1];
+                tmp[r] = ur > 0 ? tot[r * kc + c0] / ur : NAN;
+            }
+            double sd;
+            if (summarise(tmp, B, o->level, &sc.low, &sc.high, &sd) > 0)
+                sc.interval = "pair-bootstrap";
         }
         if (vg_cmp_add_score(b, &sc) != 0) goto oom;
     }
@@ -160,7 +170,15 @@ static vg_status compare_method(vg_cmp_build *b, const vg_paired_items *in, size
         row.n_b = used[c2];
         row.score_a = acc[a];
         row.score_b = acc[c2];
-        row.diff = acc[a] - acc[c2];
+        /* On the same questions the difference is (right_a - right_b) /
+         * used, formed so, here and in every replicate: two
+         * quotients subtracted differ in the last bit from the same
+         * difference taken once, and would decide ties by rounding
+         * (issue 30). */
+        if (used[a] == used[c2])
+            row.diff = used[a] ? ((double)right[a] - (double)right[c2]) / (double)used[a] : NAN;
+        else
+            row.diff = acc[a] - acc[c2];
         size_t either = 0;
         /* McNemar on the questions both sets answered (in common mode,
          * the common questions). */
@@ -173,21 +191,40 @@ static vg_status compare_method(vg_cmp_build *b, const vg_paired_items *in, size
         row.n_compared = as_is ? either : n_common;
         row.n_dropped = as_is ? 0 : n - n_common;
         row.p_mcnemar = vg_paired_mcnemar_exact(row.only_a, row.only_b).p_value;
-        if (B > 0) {
-            for (size_t r = 0; r < B; r++) d[r] = reps[a * B + r] - reps[c2 * B + r];
-            for (size_t i = 0; i < n; i++) dj[i] = jack[a * n + i] - jack[c2 * n + i];
-            row.p_bootstrap = vg_cmp_boot_p(d, B, row.diff);
-            vg_boot_summary bs;
-            vg_stats_boot_summary(d, B, row.diff, dj, n, o->level, &bs);
-            row.replicates = bs.replicates;
-            vg_cmp_interval(&bs, &row.diff_low, &row.diff_high, &row.interval);
-        }
-        if (!as_is) {
-            row.test = "mcnemar-exact";
-            row.p_value = row.p_mcnemar;
-        } else if (B > 0) {
-            row.test = "bootstrap";
-            row.p_value = row.p_bootstrap;
+        if (tot) {
+            size_t ca = col_of[a], cb = col_of[c2];
+            for (size_t r = 0; r < B; r++) {
+                const double *t = tot + r * kc;
+                double ra = t[ca], ua = t[ca + 1], rb = t[cb], ub = t[cb + 1];
+                if (!(ua > 0) || !(ub > 0))
+                    d_r[r] = NAN;
+                else if (ua == ub)
+                    d_r[r] = (ra - rb) / ua;
+                else
+                    d_r[r] = ra / ua - rb / ub;
+            }
+            row.p_bootstrap = vg_cmp_boot_p(d_r, B, row.diff);
+            double sd;
+            row.replicates = summarise(d_r, B, o->level, &row.diff_low, &row.diff_high, &sd);
+            row.interval = row.replicates ? "pair-bootstrap" : "";
+            /* The test: the difference over the pair bootstrap's standard
+             * error, against the normal (a Wald test whose variance is
+             * the bootstrap's, Efron and Tibshirani 1993, ch. 16; from
+             * memory). Its p is not held at 1 / (B + 1), so Holm's
+             * adjustment over many suites can still reject. */
+            row.test = "pair-bootstrap";
+            if (isnan(row.diff) || isnan(sd))
+                row.p_value = NAN;
+            else if (sd > 0)
+                row.p_value = 2 * gsl_cdf_ugaussian_Q(fabs(row.diff) / sd);
+            else
+                row.p_value = row.diff == 0 ? 1.0 : NAN;
+        } else {
+            /* Without resamples only McNemar's test is left, and it covers
+             * the questions both sets answered: in as-is mode other
+             * questions than the scores, so no test. */
+            row.test = as_is ? "" : "mcnemar-exact";
+            row.p_value = as_is ? NAN : row.p_mcnemar;
         }
         if (isnan(row.diff)) {
             /* No question to compare on: no test. */
@@ -201,25 +238,30 @@ oom:
     st = vg_error_set(err, VG_ENOMEM, NULL, 0, "out of memory");
 done:
     for (size_t j = 0; u && j < ns; j++) vg_free(u[j]);
+    for (size_t j = 0; cols && j < 2 * ns; j++) vg_free(cols[j]);
     vg_free(x);
     vg_free(u);
+    vg_free(cols);
+    vg_free(col_of);
     vg_free(common);
-    vg_free(acc);
-    vg_free(reps);
-    vg_free(jack);
     vg_free(used);
-    vg_free(d);
-    vg_free(dj);
+    vg_free(right);
+    vg_free(acc);
+    vg_free(sums);
+    vg_free(tot);
     vg_free(tmp);
+    vg_free(d_r);
     return st;
 }
 
 vg_status vg_cmp_analogy(vg_cmp_build *b, const vg_paired_items *in, size_t k, vg_error *err) {
     unsigned methods = b->c->options.methods ? b->c->options.methods : 1u << VG_METHOD_3COSADD;
-    for (int m = 0; m < VG_METHOD_COUNT; m++) {
+    vg_pairboot_design *d = NULL;
+    vg_status st = analogy_design(&in->suites[k], &d, err);
+    for (int m = 0; st == VG_OK && m < VG_METHOD_COUNT; m++) {
         if (!(methods & (1u << m))) continue;
-        vg_status st = compare_method(b, in, k, (vg_method)m, err);
-        if (st != VG_OK) return st;
+        st = compare_method(b, in, k, (vg_method)m, d, err);
     }
-    return VG_OK;
+    vg_pairboot_design_free(d);
+    return st;
 }

@@ -105,6 +105,19 @@ vg_status vg_paired_items_from_results(const vg_results *r, vg_paired_items **ou
                 }
             }
             ps->correct = cor;
+            uint32_t *st = vg_paired_alloc(p, n, sizeof *st);
+            uint32_t *row = vg_paired_alloc(p, n, sizeof *row);
+            uint32_t *col = vg_paired_alloc(p, n, sizeof *col);
+            if (!st || !row || !col) goto oom;
+            vg_status rc = vg_suite_question_pairs(s, st, row, col, err);
+            if (rc != VG_OK) {
+                vg_paired_items_free(p);
+                return rc;
+            }
+            ps->stratum = st;
+            ps->n_strata = s->n_sections ? s->n_sections : 1;
+            ps->row_pair = row;
+            ps->col_pair = col;
         }
     }
     *out = p;

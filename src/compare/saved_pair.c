@@ -54,6 +54,55 @@ static vg_status same_suite(const vg_saved_run *ra, const vg_saved_suite *s,
     return VG_OK;
 }
 
+/* The word pairs of each question of s, from the words and sections
+ * items.csv holds (the expected column lists every accepted answer,
+ * '/'-separated: the first is d), as vg_suite_question_pairs numbers them
+ * in-process; sections numbered in order of first appearance. */
+static vg_status pair_ids(vg_paired_items *p, const vg_saved_suite *s, vg_paired_suite *ps,
+                          vg_error *err) {
+    size_t n = s->n_items;
+    uint32_t *st = vg_paired_alloc(p, n, sizeof *st), *row = vg_paired_alloc(p, n, sizeof *row);
+    uint32_t *col = vg_paired_alloc(p, n, sizeof *col);
+    const char **w = vg_calloc(4 * n + 1, sizeof *w);
+    char **first = vg_calloc(n + 1, sizeof *first);
+    vg_status rc = VG_OK;
+    if (!st || !row || !col || !w || !first) goto oom;
+    size_t n_strata = 0;
+    for (size_t i = 0; i < n; i++) {
+        const char *sec = s->sections ? s->sections[i] : "";
+        size_t j = 0;
+        /* Sections are contiguous: an earlier item with the same name is
+         * most often the one before. */
+        if (i > 0 && strcmp(sec, s->sections ? s->sections[i - 1] : "") == 0) {
+            st[i] = st[i - 1];
+        } else {
+            for (j = 0; j < i; j++)
+                if (strcmp(sec, s->sections[j]) == 0) break;
+            st[i] = j < i ? st[j] : (uint32_t)n_strata++;
+        }
+        const char *e = s->words[4 * i + 3];
+        const char *slash = strchr(e, '/');
+        if (!(first[i] = vg_strndup(e, slash ? (size_t)(slash - e) : strlen(e)))) goto oom;
+        w[4 * i] = s->words[4 * i];
+        w[4 * i + 1] = s->words[4 * i + 1];
+        w[4 * i + 2] = s->words[4 * i + 2];
+        w[4 * i + 3] = first[i];
+    }
+    if ((rc = vg_pair_ids(n, w, st, row, col, err)) != VG_OK) goto done;
+    ps->stratum = st;
+    ps->n_strata = n_strata ? n_strata : 1;
+    ps->row_pair = row;
+    ps->col_pair = col;
+    goto done;
+oom:
+    rc = vg_error_set(err, VG_ENOMEM, NULL, 0, "out of memory");
+done:
+    for (size_t i = 0; first && i < n; i++) vg_free(first[i]);
+    vg_free(first);
+    vg_free(w);
+    return rc;
+}
+
 vg_status vg_saved_runs_pair(const vg_saved_run *const *runs, size_t n, int strict,
                              vg_paired_items **out, vg_error *err) {
     *out = NULL;
@@ -138,6 +187,10 @@ vg_status vg_saved_runs_pair(const vg_saved_run *const *runs, size_t n, int stri
                             runs[q]->correct[(i * runs[q]->n_suites + (size_t)at[q]) *
                                                  VG_METHOD_COUNT + m];
             ps->correct = cor;
+            if (pair_ids(p, s, ps, err) != VG_OK) {
+                vg_paired_items_free(p);
+                return err->code;
+            }
         }
     }
     *out = p;

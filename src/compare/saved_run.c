@@ -54,6 +54,7 @@ void vg_saved_run_free(vg_saved_run *r) {
         vg_saved_suite *s = &r->suites[k];
         vg_free(s->id);
         vg_free(s->words);
+        vg_free(s->sections);
         vg_free(s->rating);
         for (size_t f = 0; s->sha256 && f < s->n_files; f++) vg_free(s->sha256[f]);
         vg_free(s->sha256);
@@ -263,6 +264,7 @@ static vg_status read_items(vg_saved_run *r, vg_error *err) {
     if (st != VG_OK) return st;
     long mcol[VG_METHOD_COUNT];
     for (int m = 0; m < VG_METHOD_COUNT; m++) mcol[m] = vg_csv_column(t, method_cols[m]);
+    long scol = vg_csv_column(t, "subset");
     size_t blocks = r->n_sets * r->n_suites;
     r->cosine = vg_calloc(blocks ? blocks : 1, sizeof *r->cosine);
     r->correct = vg_calloc(blocks ? blocks * VG_METHOD_COUNT : 1, sizeof *r->correct);
@@ -274,6 +276,7 @@ static vg_status read_items(vg_saved_run *r, vg_error *err) {
         s->words = vg_calloc(4 * n, sizeof *s->words);
         if (s->task == VG_TASK_SIMILARITY) s->rating = vg_calloc(n, sizeof *s->rating);
         if (!s->words || (s->task == VG_TASK_SIMILARITY && !s->rating)) goto oom;
+        if (scol >= 0 && !(s->sections = vg_calloc(n, sizeof *s->sections))) goto oom;
         for (size_t i = 0; i < r->n_sets; i++) {
             size_t b = i * r->n_suites + k;
             if (!(seen[b] = vg_calloc(n, 1))) goto oom;
@@ -331,6 +334,7 @@ static vg_status read_items(vg_saved_run *r, vg_error *err) {
         /* The words of an item are the same for every set of the run. */
         const long wc[4] = {col[C_W1], col[C_W2], col[C_W3], col[C_EXP]};
         int first = s->words[4 * i] == NULL;
+        if (first && s->sections) s->sections[i] = rec->field[scol];
         for (int w = 0; w < 4; w++) {
             char *f = rec->field[wc[w]];
             if (first) {

@@ -198,12 +198,24 @@ void vg_md_intervals(const vg_results *r, FILE *fp) {
     int ana = vg_results_has_task(r, VG_TASK_ANALOGY);
     if (!any && !ana) return;
     fputs("## Intervals\n\n", fp);
-    if (ana)
-        fprintf(fp, "- Analogy accuracies: %g%% Wilson score intervals (Wilson 1927)%s.\n",
-                100 * o->ci,
-                o->bootstrap > 0 ? "; intervals.csv adds a bootstrap percentile interval over "
-                                   "the questions, the same resamples for every vector set"
-                                 : "");
+    if (ana && o->bootstrap > 0)
+        fprintf(fp,
+                "- Analogy accuracies: %g%% pair-bootstrap percentile intervals (Owen 2007, "
+                "the pigeonhole bootstrap): %zu resamples of the word pairs each section's "
+                "questions are built from, pairs taken as a : b and as c : d drawn "
+                "independently, the same resamples for every vector set (seed %llu). "
+                "Questions that share a pair succeed or fail together, so they are not "
+                "independent trials; intervals.csv keeps the Wilson interval "
+                "(wilson-independent), which assumes they are and is far too narrow "
+                "(see docs/reading-the-numbers.md).\n",
+                100 * o->ci, o->bootstrap, (unsigned long long)o->seed);
+    else if (ana)
+        fprintf(fp,
+                "- Analogy accuracies: %g%% Wilson score intervals (Wilson 1927), which "
+                "assume independent questions: questions that share a word pair are "
+                "not, so these are too narrow (a bootstrap run gives the pair "
+                "bootstrap's interval).\n",
+                100 * o->ci);
     if (!any) {
         fputc('\n', fp);
         return;

@@ -80,7 +80,7 @@ vg_status vg_suite_question_pairs(const vg_suite *s, uint32_t *stratum, uint32_t
         w[4 * i] = q->a;
         w[4 * i + 1] = q->b;
         w[4 * i + 2] = q->c;
-        w[4 * i + 3] = q->answers[0];
+        w[4 * i + 3] = q->n_answers && q->answers ? q->answers[0] : "";
         sec[i] = (uint32_t)(s->n_sections ? q->section : 0);
     }
     vg_status st = vg_pair_ids(n, w, sec, row, col, err);

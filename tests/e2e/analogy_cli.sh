@@ -39,7 +39,7 @@ import csv, sys
 rows = {(r["subset"], r["metric"]): r for r in csv.DictReader(open(sys.argv[1]))}
 r, a = rows[("", "3cosadd")], rows[("", "3cosadd_all")]
 ok = float(r["value"]) == 1.0 and abs(float(a["value"]) - 2 / 3) < 1e-15 and \
-     r["n_used"] == "2" and r["n_items"] == "3" and r["ci_method"] == "wilson" and \
+     r["n_used"] == "2" and r["n_items"] == "3" and r["ci_method"] == "pair-bootstrap" and \
      rows[("royal", "3cosadd")]["n_items"] == "2" and rows[("missing", "3cosadd")]["n_used"] == "0"
 sys.exit(0 if ok else 1)
 PYEOF

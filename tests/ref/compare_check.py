@@ -26,6 +26,10 @@ For every row of COMPARISON_CSV:
     and r_ab = spearmanr(cos_a, cos_b), divided by sqrt(1 + r^2 / 2), the
     variance factor of Fisher's z of Spearman's rho (Bonett and Wright 2000,
     from memory), with scipy.stats.norm;
+  - analogy: the pair bootstrap's percentile interval (numpy.percentile)
+    and its p, 2 Phi(-|d| / sd*) (scipy.stats.norm); the questions of these
+    files share no word pair, so its draws are exactly those of the
+    question bootstrap (the degenerate design, stats.h);
   - McNemar's exact p as scipy.stats.binomtest(min(b, c), b + c, 0.5);
   - Holm's adjustment and the rejections at ALPHA by
     statsmodels.stats.multitest.multipletests(method='holm').
@@ -154,10 +158,20 @@ def main():
             defined = reps[~np.isnan(reps)]
             p = (1 + (np.abs(defined - d) >= abs(d)).sum()) / (len(defined) + 1)
             check(tag + " bootstrap p", num(row["p_bootstrap"]), p)
-            pct, bc = bca(reps, d, jack, level)
-            want = bc if row["ci_method"] == "bca" else pct
-            check(tag + " interval method", row["ci_method"],
-                  "bca" if all(np.isfinite(bc)) else "percentile")
+            if sim:
+                pct, bc = bca(reps, d, jack, level)
+                want = bc if row["ci_method"] == "bca" else pct
+                check(tag + " interval method", row["ci_method"],
+                      "bca" if all(np.isfinite(bc)) else "percentile")
+            else:
+                # The pair bootstrap's percentile interval, and its test:
+                # 2 Phi(-|d| / sd*), sd* the SD of the replicate differences.
+                want = np.percentile(defined, [100 * (1 - level) / 2, 100 * (1 + level) / 2])
+                check(tag + " interval method", row["ci_method"], "pair-bootstrap")
+                check(tag + " test", row["test"], "pair-bootstrap")
+                sd = defined.std(ddof=1)
+                check(tag + " pair-bootstrap p (scipy norm)", num(row["p_value"]),
+                      2 * stats.norm.sf(abs(d) / sd))
             check(tag + " ci_low", num(row["ci_low"]), want[0])
             check(tag + " ci_high", num(row["ci_high"]), want[1])
             check(tag + " replicates", int(row["replicates"]), len(defined))

@@ -380,7 +380,9 @@ static vg_results *evaluate(const vg_vectors *v, const vg_suite *s, unsigned thr
  * PairDir on 1, 2, 7 (3/5), only-b on 2, 7 (2/5). Sections: first {0, 1},
  * second {2..6} (3 covered), third {7}; groups alpha = first + third,
  * beta = second. Wilson intervals are vg_stats_wilson of the same counts
- * (checked against published values in test_analogy_wilson.c). */
+ * (checked against published values in test_analogy_wilson.c), named for
+ * what they assume; the pair bootstrap's interval comes first, with the
+ * number of its replicates (issue 30: that count was left empty). */
 static void test_rows(void **state) {
     (void)state;
     vg_vectors *v = build_vectors();
@@ -396,14 +398,16 @@ static void test_rows(void **state) {
     assert_int_equal(row->task, VG_TASK_ANALOGY);
     double lo, hi;
     vg_stats_wilson(2, 5, 0.95, &lo, &hi);
-    assert_string_equal(row->ci[0].method, "wilson");
-    assert_close(row->ci[0].low, lo, 0, 0);
-    assert_close(row->ci[0].high, hi, 0, 0);
-    assert_string_equal(row->ci[1].method, "percentile");
-    assert_true(row->ci[1].low <= row->value && row->value <= row->ci[1].high);
+    assert_string_equal(row->ci[1].method, "wilson-independent");
+    assert_close(row->ci[1].low, lo, 0, 0);
+    assert_close(row->ci[1].high, hi, 0, 0);
+    assert_int_equal(row->ci[1].replicates, 0);
+    assert_string_equal(row->ci[0].method, "pair-bootstrap");
+    assert_int_equal(row->ci[0].replicates, 200);
+    assert_true(row->ci[0].low <= row->value && row->value <= row->ci[0].high);
     assert_close(find(r, "", VG_METRIC_3COSADD, 1)->value, 2.0 / 8, 1e-15, 0);
     vg_stats_wilson(2, 8, 0.95, &lo, &hi);
-    assert_close(find(r, "", VG_METRIC_3COSADD, 1)->ci[0].low, lo, 0, 0);
+    assert_close(find(r, "", VG_METRIC_3COSADD, 1)->ci[1].low, lo, 0, 0);
     assert_close(find(r, "", VG_METRIC_3COSMUL, 0)->value, 3.0 / 5, 1e-15, 0);
     assert_close(find(r, "", VG_METRIC_PAIRDIR, 0)->value, 3.0 / 5, 1e-15, 0);
     assert_close(find(r, "", VG_METRIC_ONLY_B, 0)->value, 2.0 / 5, 1e-15, 0);
@@ -427,11 +431,12 @@ static void test_rows(void **state) {
     vg_vectors_free(v);
 }
 
-/* analogy-8: the bootstrap intervals are deterministic and do not depend
- * on the thread count (each replicate is seeded from seed, stream and its
- * index alone); and replicate b draws the same questions whatever the
- * vector set, because the stream is derived from the suite id and subset
- * (vg_resample_stream), never from the set. */
+/* analogy-8: the pair bootstrap's intervals are deterministic and do not
+ * depend on the thread count (each replicate is seeded from seed, stream
+ * and its index alone), and follow the documented draws: the whole-suite
+ * interval recomputed here from vg_pairboot_weights on the suite's stream
+ * (the weight of every question in each replicate) and the pair
+ * identities vg_suite_question_pairs gives. */
 static void test_bootstrap_determinism(void **state) {
     (void)state;
     vg_vectors *v = build_vectors();
@@ -440,29 +445,30 @@ static void test_bootstrap_determinism(void **state) {
     assert_int_equal(r1->n_rows, r3->n_rows);
     for (size_t i = 0; i < r1->n_rows; i++) {
         assert_int_equal(r1->rows[i].n_ci, 2);
-        assert_memory_equal(&r1->rows[i].ci[1].low, &r3->rows[i].ci[1].low, sizeof(double));
-        assert_memory_equal(&r1->rows[i].ci[1].high, &r3->rows[i].ci[1].high, sizeof(double));
+        assert_memory_equal(&r1->rows[i].ci[0].low, &r3->rows[i].ci[0].low, sizeof(double));
+        assert_memory_equal(&r1->rows[i].ci[0].high, &r3->rows[i].ci[0].high, sizeof(double));
     }
-    /* Recompute the whole-suite 3CosAdd percentile interval from the
-     * documented streams: the 2.5% and 97.5% points (GSL quantile) of the
-     * replicates' accuracy on covered drawn questions. */
     const vg_analogy_scores *sc = vg_results_block(r1, 0, 0)->ana;
-    gsl_rng *rng = vg_resample_rng_alloc();
-    size_t idx[8];
-    double acc[500];
+    uint32_t st[8], row[8], col[8];
+    vg_error err;
+    assert_vg_ok(vg_suite_question_pairs(s, st, row, col, &err), &err);
+    vg_pairboot_design *d;
+    assert_vg_ok(vg_pairboot_design_new(st, s->n_sections, row, col, 8, &d, &err), &err);
+    double acc[500], w[8];
     size_t m = 0;
     for (size_t b = 0; b < 500; b++) {
-        vg_resample_seed(rng, VG_DEFAULT_SEED, vg_resample_stream("hand", ""), b);
-        vg_resample_draw(rng, 8, idx);
-        size_t cov = 0, ok = 0;
+        assert_vg_ok(vg_pairboot_weights(d, VG_DEFAULT_SEED, vg_resample_stream("hand", ""), b, w,
+                                         &err),
+                     &err);
+        double cov = 0, ok = 0;
         for (int i = 0; i < 8; i++) {
-            if (sc->status[idx[i]] != VG_ITEM_SCORED) continue;
-            cov++;
-            ok += sc->correct[VG_METHOD_3COSADD][idx[i]];
+            if (sc->status[i] != VG_ITEM_SCORED) continue;
+            cov += w[i];
+            ok += w[i] * sc->correct[VG_METHOD_3COSADD][i];
         }
-        if (cov) acc[m++] = (double)ok / (double)cov;
+        if (cov > 0) acc[m++] = ok / cov;
     }
-    gsl_rng_free(rng);
+    vg_pairboot_design_free(d);
     for (size_t i = 1; i < m; i++)
         for (size_t j = i; j > 0 && acc[j - 1] > acc[j]; j--) {
             double t = acc[j];
@@ -475,7 +481,9 @@ static void test_bootstrap_determinism(void **state) {
     size_t lo = (size_t)pos;
     double delta = pos - (double)lo;
     double want = (1 - delta) * acc[lo] + delta * acc[lo + 1];
-    assert_close(find(r1, "", VG_METRIC_3COSADD, 0)->ci[1].low, want, 1e-15, 0);
+    const vg_score_row *hr = find(r1, "", VG_METRIC_3COSADD, 0);
+    assert_close(hr->ci[0].low, want, 1e-15, 0);
+    assert_int_equal(hr->ci[0].replicates, m);
     vg_results_free(r1);
     vg_results_free(r3);
     vg_suite_free(s);

@@ -8,6 +8,7 @@
 
 #include "common/alloc.h"
 #include "compare/compare_impl.h"
+#include "stats/resample.h"
 
 /* 3CosAdd answers of two sets on 10 questions: 1 right, 0 wrong, -1 not
  * answered. Questions 7 and 8 (index 6, 7) are answered by one set only. */
@@ -90,10 +91,10 @@ static void test_analogy_as_is(void **state) {
     assert_string_equal(r->test, "");
     assert_true(isnan(r->p_value));
     vg_comparisons_free(c);
-    /* With a bootstrap the as-is test is the bootstrap's. */
+    /* With a bootstrap the as-is test is the pair bootstrap's. */
     o.replicates = 200;
     assert_vg_ok(vg_compare(&in, &o, &c, &err), &err);
-    assert_string_equal(c->rows[0].test, "bootstrap");
+    assert_string_equal(c->rows[0].test, "pair-bootstrap");
     assert_true(c->rows[0].p_value > 0 && c->rows[0].p_value <= 1);
     vg_comparisons_free(c);
 }
@@ -189,6 +190,69 @@ static void test_boot_p(void **state) {
     assert_true(isnan(vg_cmp_boot_p(none, 2, 0.1)));
     /* A zero difference: every replicate is as extreme, p = 1. */
     assert_close(vg_cmp_boot_p(reps, 5, 0.0), 1.0, 1e-15, 0);
+}
+
+/* compare-ties-1 (issue 30): replicate differences of analogy accuracy
+ * are formed as (right_a - right_b) / used, so that one mathematically
+ * equal to the observed difference compares equal to it. 49 questions
+ * sharing no pair (the question bootstrap: every replicate weighs 49 in
+ * all); A is right on questions 0..20, B on 1..20, so d = 1/49 and a
+ * replicate's d* = c0/49, c0 the multiplicity of question 0: |d* - d| >=
+ * |d| exactly when c0 != 1, and the shifted p (Hall and Wilson 1991) is
+ * (1 + #{c0 != 1}) / (B + 1). The old form right_a/49 - right_b/49 gets
+ * some of those ties wrong by a rounding (checked here first, so that
+ * the test reproduces the problem it guards against). */
+static void test_analogy_ties(void **state) {
+    (void)state;
+    enum { N = 49, B = 400 };
+    static signed char a[N], b[N];
+    for (int i = 0; i < N; i++) {
+        a[i] = i <= 20;
+        b[i] = i >= 1 && i <= 20;
+    }
+    const signed char *cor[2 * VG_METHOD_COUNT] = {0};
+    cor[0 * VG_METHOD_COUNT + VG_METHOD_3COSADD] = a;
+    cor[1 * VG_METHOD_COUNT + VG_METHOD_3COSADD] = b;
+    static const char *const labels[] = {"a", "b"};
+    vg_paired_suite ps = {.id = "ties", .task = VG_TASK_ANALOGY, .n_items = N, .correct = cor};
+    vg_paired_items in = {.n_sets = 2, .labels = labels, .n_suites = 1, .suites = &ps};
+    uint32_t z[N], id[N];
+    for (uint32_t i = 0; i < N; i++) {
+        z[i] = 0;
+        id[i] = i;
+    }
+    vg_error err;
+    vg_pairboot_design *d;
+    assert_vg_ok(vg_pairboot_design_new(z, 1, id, id, N, &d, &err), &err);
+    double w[N];
+    size_t extreme = 0, naive_wrong = 0;
+    const double dd = (21.0 - 20.0) / N;
+    for (size_t r = 0; r < B; r++) {
+        assert_vg_ok(vg_pairboot_weights(d, VG_DEFAULT_SEED, vg_resample_stream("ties", ""), r, w,
+                                         &err),
+                     &err);
+        double ra = 0, rb = 0, tot = 0;
+        for (int i = 0; i < N; i++) {
+            ra += w[i] * (a[i] == 1);
+            rb += w[i] * (b[i] == 1);
+            tot += w[i];
+        }
+        assert_close(tot, N, 0, 0);
+        extreme += w[0] != 1;
+        double naive = ra / tot - rb / tot;
+        naive_wrong += (fabs(naive - dd) >= fabs(dd)) != (w[0] != 1);
+    }
+    vg_pairboot_design_free(d);
+    assert_true(naive_wrong > 0);
+    vg_compare_options o;
+    vg_compare_options_init(&o);
+    o.replicates = B;
+    o.threads = 2;
+    vg_comparisons *c = NULL;
+    assert_vg_ok(vg_compare(&in, &o, &c, &err), &err);
+    assert_close(c->rows[0].diff, dd, 0, 0);
+    assert_close(c->rows[0].p_bootstrap, (1.0 + (double)extreme) / (B + 1.0), 0, 0);
+    vg_comparisons_free(c);
 }
 
 /* compare-6: in-process results to paired items: a question's
@@ -469,6 +533,7 @@ int main(void) {
     const struct CMUnitTest tests[] = {
         cmocka_unit_test(test_analogy_common),  cmocka_unit_test(test_analogy_as_is),
         cmocka_unit_test(test_similarity_steiger), cmocka_unit_test(test_boot_p),
+        cmocka_unit_test(test_analogy_ties),
         cmocka_unit_test(test_from_results),    cmocka_unit_test(test_saved_runs),
         cmocka_unit_test(test_allocation_failures), cmocka_unit_test(test_history),
         cmocka_unit_test(test_plot_names),
