@@ -44,8 +44,10 @@ static const char compare_help[] =
     "summary.md, plots/SUITE.svg and .png, and compare.json, and prints the table.\n"
     "Similarity: Steiger's Z1* on the common items is the test; a paired bootstrap\n"
     "of the difference in Spearman's rho gives the interval (BCa) and a second p\n"
-    "(Hall-Wilson). Analogy: McNemar's exact test, and a paired bootstrap interval\n"
-    "of the accuracy difference. With --no-common the paired bootstrap is the test.\n";
+    "(Hall-Wilson). Analogy: the pair bootstrap (word pairs of each section\n"
+    "resampled, Owen 2007) of the accuracy difference is the test and gives the\n"
+    "interval; McNemar's exact test, which treats questions as independent, is shown\n"
+    "beside it. With --no-common the paired bootstrap is the test.\n";
 
 /* ---- shared helpers ------------------------------------------------------- */
 

@@ -60,9 +60,10 @@ static const char score_help[] =
     "summary.md, table.tex and run.json into the run directory and prints the\n"
     "headline table on standard output; with several sets also comparison.csv,\n"
     "ranking.csv and plots/ (see 'vecgauge compare --help'). Intervals are BCa\n"
-    "bootstrap intervals for similarity and Wilson's for analogy accuracy\n"
-    "(percentile and Fisher-z ones in intervals.csv); the same seed gives the\n"
-    "same numbers for any --threads.\n";
+    "bootstrap intervals for similarity and pair-bootstrap ones for analogy\n"
+    "accuracy (each section's word pairs resampled; percentile, Fisher-z and\n"
+    "Wilson intervals in intervals.csv); the same seed gives the same numbers for\n"
+    "any --threads.\n";
 
 /* One suite as asked for on the command line. */
 typedef enum { SPEC_SUITE, SPEC_PAIRS, SPEC_ANALOGIES } spec_kind;

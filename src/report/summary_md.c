@@ -62,7 +62,7 @@ const char *vg_md_headline_method(const vg_results *r, vg_task t) {
             if (strcmp(m, "wilson") == 0) return "Wilson";
             if (strcmp(m, "wilson-independent") == 0)
                 return "Wilson (assuming independent questions)";
-            if (strcmp(m, "pair-bootstrap") == 0) return "pair bootstrap (Owen 2007)";
+            if (strcmp(m, "pair-bootstrap") == 0) return "pair bootstrap";
             return m;
         }
     return "no";
