@@ -73,7 +73,7 @@ SCORE_O   = score/similarity.o score/analogy.o score/analogy_kernel.o score/miss
 STATS_O   = stats/rank.o stats/correlation.o stats/kendall.o stats/interval.o \
             stats/resample.o stats/corrboot.o stats/agreement.o \
             stats/paired_correlation.o stats/paired_counts.o stats/wilson.o \
-            stats/pairboot.o
+            stats/pairboot.o stats/quantile.o
 EVAL_O    = eval/results.o eval/evaluate.o eval/similarity_rows.o eval/agreement.o \
             eval/analogy_rows.o
 COMPARE_O = compare/compare.o compare/compare_similarity.o compare/compare_analogy.o \

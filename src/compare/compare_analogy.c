@@ -13,33 +13,21 @@
 #include <gsl/gsl_cdf.h>
 #include <gsl/gsl_statistics_double.h>
 #include <math.h>
-#include <stdlib.h>
 #include <string.h>
 
 #include "../common/alloc.h"
 #include "../stats/resample.h"
+#include "../stats/stats_impl.h"
 #include "compare_impl.h"
 #include "vecgauge/paired.h"
 #include "vecgauge/stats.h"
 
-static int cmp_double(const void *a, const void *b) {
-    double x = *(const double *)a, y = *(const double *)b;
-    return (x > y) - (x < y);
-}
-
-/* Percentile interval (GSL quantile, Hyndman and Fan 1996 definition 7)
- * and standard deviation of the finite values of x[0..n), which is
- * reordered. Returns the number of finite values. */
+/* Percentile interval (vg_stats_percentile_interval) and standard
+ * deviation of the finite values of x[0..n), which is reordered. Returns
+ * the number of finite values. */
 static size_t summarise(double *x, size_t n, double level, double *low, double *high, double *sd) {
-    size_t m = 0;
-    for (size_t i = 0; i < n; i++)
-        if (!isnan(x[i])) x[m++] = x[i];
-    *low = *high = *sd = NAN;
-    if (m == 0) return 0;
+    size_t m = vg_stats_percentile_interval(x, n, level, low, high);
     *sd = m > 1 ? gsl_stats_sd(x, 1, m) : NAN;
-    qsort(x, m, sizeof *x, cmp_double);
-    *low = gsl_stats_quantile_from_sorted_data(x, 1, m, (1 - level) / 2);
-    *high = gsl_stats_quantile_from_sorted_data(x, 1, m, (1 + level) / 2);
     return m;
 }
 

@@ -16,14 +16,13 @@
  * variance is mildly conservative). Wilson's interval stays beside it,
  * named for what it assumes: independent questions.
  */
-#include <gsl/gsl_statistics_double.h>
 #include <math.h>
-#include <stdlib.h>
 #include <string.h>
 
 #include "../common/alloc.h"
 #include "../common/strmap.h"
 #include "../stats/resample.h"
+#include "../stats/stats_impl.h"
 #include "eval_impl.h"
 #include "vecgauge/stats.h"
 
@@ -41,29 +40,6 @@ typedef struct block {
     size_t B;
     double *cov, *all; /* scratch: B each */
 } block;
-
-static int cmp_double(const void *a, const void *b) {
-    double x = *(const double *)a, y = *(const double *)b;
-    return (x > y) - (x < y);
-}
-
-/* Percentile interval of the finite values of x[0..n) (sorted in place,
- * NaN moved out first); GSL's quantile interpolates linearly between order
- * statistics (Hyndman and Fan 1996, definition 7). Returns the number of
- * finite values. */
-static size_t percentile(double *x, size_t n, double level, double *low, double *high) {
-    size_t m = 0;
-    for (size_t i = 0; i < n; i++)
-        if (!isnan(x[i])) x[m++] = x[i];
-    if (m == 0) {
-        *low = *high = NAN;
-        return 0;
-    }
-    qsort(x, m, sizeof *x, cmp_double);
-    *low = gsl_stats_quantile_from_sorted_data(x, 1, m, (1 - level) / 2);
-    *high = gsl_stats_quantile_from_sorted_data(x, 1, m, (1 + level) / 2);
-    return m;
-}
 
 /* The rows of one subset, the strata sub[0..ns): per method, accuracy on
  * the covered questions and on all questions. */
@@ -99,7 +75,7 @@ static vg_status subset_rows(vg_results *r, size_t *cap, size_t set, size_t suit
             row.value = denom ? (double)right / (double)denom : NAN;
             double lo, hi;
             if (bk->sums) {
-                size_t defined = percentile(all ? bk->all : bk->cov, B, opt->ci, &lo, &hi);
+                size_t defined = vg_stats_percentile_interval(all ? bk->all : bk->cov, B, opt->ci, &lo, &hi);
                 vg_row_add_interval(&row, lo, hi, "pair-bootstrap");
                 row.ci[row.n_ci - 1].replicates = defined;
             }

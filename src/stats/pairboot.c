@@ -16,12 +16,14 @@
  * of two independent counts, whose variance is 3 rather than 1.
  *
  * The sums a replicate needs are w' T v per stratum, T the R x C table of
- * per-cell totals of each value column: one dgemm over a block of
- * replicates (W, block x R, times T, R x C k), then C k products per
- * replicate. Every term is an integer (counts times small integers) and
- * every total stays far below 2^53, so the sums are exact whatever order
- * BLAS adds them in: results never depend on threads or on the BLAS
- * build. Strata too sparse for a dense table (R C much larger than their
+ * per-cell totals of each value column: one matrix product over a block
+ * of replicates (W, block x R, times T, R x C k), then C k products per
+ * replicate. Every term is an integer (counts times small integers), so
+ * the sums are exact whatever order BLAS adds them in, and results never
+ * depend on threads or on the BLAS build: the product is sgemm when no
+ * total can reach 2^24 (R C max T < 2^24, since the w sum to R and the v
+ * to C; true of every public suite), else dgemm (2^53). sgemm halves the
+ * cost, which on BATS is most of the bootstrap's. Strata too sparse for a dense table (R C much larger than their
  * occupied cells) add their cells one by one instead.
  */
 #include <cblas.h>
@@ -280,6 +282,7 @@ done:
  * occupied cells, and the isolated questions' values. */
 typedef struct table {
     double *dense;      /* rows x (cols k), cell (r, c) value j at r * cols k + c k + j */
+    float *dense_f;     /* the same in float when every total is exact in float */
     uint32_t *cell_rc;  /* sparse: 2 per cell */
     double *cell_x;     /* sparse: k per cell */
     size_t n_cells;
@@ -305,8 +308,10 @@ static void worker(void *ctx, unsigned t, unsigned T) {
     uint32_t *u = vg_calloc(NI, sizeof *u);
     double *W = vg_calloc(BLOCK * R, sizeof *W);
     double *P = vg_calloc(BLOCK * C * k, sizeof *P);
+    float *Wf = vg_calloc(BLOCK * R, sizeof *Wf);
+    float *Pf = vg_calloc(BLOCK * C * k, sizeof *Pf);
     gsl_rng *rng = vg_resample_rng_alloc();
-    if (!w || !v || !u || !W || !P || !rng) {
+    if (!w || !v || !u || !W || !P || !Wf || !Pf || !rng) {
         J->failed = 1;
         goto done;
     }
@@ -333,11 +338,20 @@ static void worker(void *ctx, unsigned t, unsigned T) {
             }
             if (!st->dense || st->rows == 0 || st->cols == 0) continue;
             size_t ck = st->cols * k;
-            for (size_t b = 0; b < nb; b++)
-                for (size_t i = 0; i < st->rows; i++) W[b * st->rows + i] = (double)w[b * R + i];
-            cblas_dgemm(CblasRowMajor, CblasNoTrans, CblasNoTrans, (int)nb, (int)ck,
-                        (int)st->rows, 1.0, W, (int)st->rows, tb->dense, (int)ck, 0.0, P,
-                        (int)ck);
+            if (tb->dense_f) {
+                for (size_t b = 0; b < nb; b++)
+                    for (size_t i = 0; i < st->rows; i++) Wf[b * st->rows + i] = (float)w[b * R + i];
+                cblas_sgemm(CblasRowMajor, CblasNoTrans, CblasNoTrans, (int)nb, (int)ck,
+                            (int)st->rows, 1.0f, Wf, (int)st->rows, tb->dense_f, (int)ck, 0.0f,
+                            Pf, (int)ck);
+                for (size_t i = 0; i < nb * ck; i++) P[i] = Pf[i];
+            } else {
+                for (size_t b = 0; b < nb; b++)
+                    for (size_t i = 0; i < st->rows; i++) W[b * st->rows + i] = (double)w[b * R + i];
+                cblas_dgemm(CblasRowMajor, CblasNoTrans, CblasNoTrans, (int)nb, (int)ck,
+                            (int)st->rows, 1.0, W, (int)st->rows, tb->dense, (int)ck, 0.0, P,
+                            (int)ck);
+            }
             for (size_t b = 0; b < nb; b++) {
                 double *out = J->sums + ((r0 + b) * S + s) * k;
                 const double *p = P + b * ck;
@@ -356,11 +370,14 @@ done:
     vg_free(u);
     vg_free(W);
     vg_free(P);
+    vg_free(Wf);
+    vg_free(Pf);
 }
 
 static void tables_free(table *tab, size_t S) {
     for (size_t s = 0; tab && s < S; s++) {
         vg_free(tab[s].dense);
+        vg_free(tab[s].dense_f);
         vg_free(tab[s].cell_rc);
         vg_free(tab[s].cell_x);
         vg_free(tab[s].iso_x);
@@ -412,6 +429,19 @@ static table *tables_build(const vg_pairboot_design *d, const unsigned char *con
             dst = tb->cell_x + have * k;
         }
         for (size_t j = 0; j < k; j++) dst[j] += x[j][i];
+    }
+    /* Float when no total can reach 2^24 (see the file's comment). */
+    for (size_t s = 0; s < S; s++) {
+        const strat *st = &d->st[s];
+        table *tb = &tab[s];
+        if (!st->dense || st->rows == 0 || st->cols == 0) continue;
+        size_t nt = st->rows * st->cols * k;
+        double mx = 0;
+        for (size_t i = 0; i < nt; i++)
+            if (tb->dense[i] > mx) mx = tb->dense[i];
+        if ((double)st->rows * (double)st->cols * mx >= 16777216.0) continue;
+        if (!(tb->dense_f = vg_calloc(nt, sizeof *tb->dense_f))) goto oom;
+        for (size_t i = 0; i < nt; i++) tb->dense_f[i] = (float)tb->dense[i];
     }
     vg_strmap_free(&m);
     vg_free(keys);
