@@ -64,7 +64,7 @@ COMMON_O  = common/error.o common/alloc.o common/arena.o common/strmap.o \
             common/filemap.o common/blas_pool.o common/infile.o
 VECTORS_O = vectors/vectors.o vectors/load.o vectors/detect.o vectors/source.o \
             vectors/gzip.o vectors/fastfloat.o vectors/text.o vectors/binary.o \
-            vectors/npy.o vectors/vocab.o vectors/batch.o
+            vectors/npy.o vectors/vocab.o vectors/batch.o vectors/digest_cache.o
 SUITES_O  = suites/suite.o suites/fields.o suites/pairs.o suites/analogies.o \
             suites/relation.o suites/split.o suites/groups.o suites/manifest.o \
             suites/datadir.o suites/pairids.o gen/manifest_csv.o

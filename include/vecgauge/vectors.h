@@ -74,7 +74,20 @@ typedef struct vg_load_options {
      * naming the file, read no further. Default VG_MAX_INFLATE; 0: no
      * bound. */
     unsigned max_inflate;
+    /* The digest cache (with compute_hash): the sha256 of a regular file is
+     * kept under $XDG_CACHE_HOME/vecgauge/digests (else ~/.cache/vecgauge),
+     * keyed by its device, inode, size and modification and status-change
+     * times in nanoseconds, and taken from there on a later load of the
+     * unchanged file instead of being computed (an entry cached less than
+     * 2 s after the file last changed is not trusted: on filesystems with
+     * coarse timestamps a rewrite within the same tick would keep its key).
+     * VG_DIGEST_CACHE_OFF (the default) never touches it,
+     * VG_DIGEST_CACHE_USE reads and writes it, VG_DIGEST_CACHE_REFRESH
+     * computes the digest and writes it (what --rehash does). */
+    int digest_cache;
 } vg_load_options;
+
+enum { VG_DIGEST_CACHE_OFF = 0, VG_DIGEST_CACHE_USE = 1, VG_DIGEST_CACHE_REFRESH = 2 };
 
 /* Fill *opt with the defaults: auto layout, all rows, hash on, no filter,
  * inflation bounded by VG_MAX_INFLATE. */
@@ -107,6 +120,9 @@ typedef struct vg_vectors_info {
     int mapped;                /* npy: the matrix is the file's own bytes, mapped
                                   read-only (native float32, row-major, aligned);
                                   the file must not change while it is in use */
+    int digest_cached;         /* 1: sha256 was taken from the digest cache
+                                  (vg_load_options.digest_cache), not computed
+                                  in this load */
 } vg_vectors_info;
 
 typedef struct vg_vectors vg_vectors;

@@ -78,7 +78,8 @@ enum {
     VG_OPT_SKIP_BAD,
     VG_OPT_NO_HASH,
     VG_OPT_NO_PROGRESS,
-    VG_OPT_MAX_INFLATE
+    VG_OPT_MAX_INFLATE,
+    VG_OPT_REHASH
 };
 #define VG_CLI_LOAD_LONG_OPTIONS                                   \
     {"format", required_argument, NULL, VG_OPT_FORMAT},            \
@@ -88,7 +89,8 @@ enum {
     {"skip-bad-rows", no_argument, NULL, VG_OPT_SKIP_BAD},         \
     {"no-hash", no_argument, NULL, VG_OPT_NO_HASH},                \
     {"no-progress", no_argument, NULL, VG_OPT_NO_PROGRESS},        \
-    {"max-inflate", required_argument, NULL, VG_OPT_MAX_INFLATE}
+    {"max-inflate", required_argument, NULL, VG_OPT_MAX_INFLATE},  \
+    {"rehash", no_argument, NULL, VG_OPT_REHASH}
 /* Their help, one "Vector files:" section. */
 extern const char vg_cli_load_help[];
 /* Apply option c (argument arg) to *lo (or *progress). Returns 1 when c

@@ -133,6 +133,7 @@ static void print_text(const char *path, const vg_vectors_info *in, double nmin,
 int vg_cmd_inspect(int argc, char **argv) {
     vg_load_options lo;
     vg_load_options_init(&lo);
+    lo.digest_cache = VG_DIGEST_CACHE_USE;
     int json = 0, progress = 1, rc = VG_EXIT_FAIL;
     optind = 1;
     opterr = 0;

@@ -301,6 +301,8 @@ int vg_cmd_score(int argc, char **argv) {
     memset(&a, 0, sizeof a);
     vg_eval_options_init(&a.eval);
     vg_load_options_init(&a.load);
+    /* The command keeps vector digests between runs (--rehash: not read). */
+    a.load.digest_cache = VG_DIGEST_CACHE_USE;
     a.progress = 1;
     vg_cli_stats_init(&a.stats);
     int rc = VG_EXIT_FAIL;

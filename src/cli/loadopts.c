@@ -17,6 +17,7 @@ const char vg_cli_load_help[] =
     "      --no-hash          do not compute the files' sha256\n"
     "      --max-inflate N    a gzip file may inflate to N times its size, past 256 MiB\n"
     "                         (default 64; 0: no bound)\n"
+    "      --rehash           compute the sha256 even when the digest cache holds it\n"
     "      --no-progress      no progress line, even on a terminal\n";
 
 int vg_cli_load_option(const char *command, int c, const char *arg, vg_load_options *lo,
@@ -41,6 +42,7 @@ int vg_cli_load_option(const char *command, int c, const char *arg, vg_load_opti
     case VG_OPT_ALLOW_SHORT: lo->allow_short = 1; return 1;
     case VG_OPT_SKIP_BAD: lo->skip_bad_rows = 1; return 1;
     case VG_OPT_NO_HASH: lo->compute_hash = 0; return 1;
+    case VG_OPT_REHASH: lo->digest_cache = VG_DIGEST_CACHE_REFRESH; return 1;
     case VG_OPT_NO_PROGRESS: *progress = 0; return 1;
     case VG_OPT_MAX_INFLATE:
         if (vg_cli_parse_u64(arg, 0, 1032, &u) != 0) {

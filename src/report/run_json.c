@@ -38,6 +38,10 @@ static json_t *vector_set_json(const vg_results *r, size_t i) {
     json_object_set_new(o, "path", vg_json_text(r->paths[i]));
     json_object_set_new(o, "bytes", json_integer((json_int_t)in->bytes));
     json_object_set_new(o, "sha256", in->hashed ? vg_json_text(in->sha256) : json_null());
+    /* Where the digest came from: this run, or the digest cache. */
+    json_object_set_new(o, "sha256_source",
+                        in->hashed ? json_string(in->digest_cached ? "cache" : "computed")
+                                   : json_null());
     json_object_set_new(o, "layout", vg_json_text(vg_layout_name(in->layout)));
     json_object_set_new(o, "gzip", json_boolean(in->gzip));
     json_object_set_new(o, "detected_because", vg_json_text(in->detected_because));

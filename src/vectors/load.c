@@ -4,6 +4,7 @@
  */
 #include <string.h>
 
+#include "../common/sha256.h"
 #include "vectors_impl.h"
 
 static vg_status load_from(vg_src *src, const vg_load_options *opt, vg_vectors **out,
@@ -63,12 +64,52 @@ vg_status vg_vectors_load(const char *path, const vg_load_options *opt, vg_vecto
         vg_load_options_init(&defaults);
         opt = &defaults;
     }
+    /* A digest found in the cache spares the hashing (digest_cache.c). */
+    vg_digest_key_t key;
+    int keyed = opt->compute_hash && opt->digest_cache != VG_DIGEST_CACHE_OFF &&
+                vg_digest_key(path, &key) == 0;
+    char cached[65];
+    int hit = keyed && opt->digest_cache == VG_DIGEST_CACHE_USE &&
+              vg_digest_cache_get(&key, cached) == 0;
+    vg_load_options o = *opt;
+    if (hit) o.compute_hash = 0;
     vg_src *src = NULL;
-    vg_status st = vg_src_open(path, opt->compute_hash, opt->progress, opt->progress_ctx, &src, err);
+    vg_status st = vg_src_open(path, o.compute_hash, o.progress, o.progress_ctx, &src, err);
     if (st != VG_OK) return st;
-    st = load_from(src, opt, out, err);
+    st = load_from(src, &o, out, err);
     vg_src_close(src);
-    return st;
+    if (st != VG_OK) return st;
+    vg_vectors_info *info = &(*out)->info;
+    if (hit) {
+        memcpy(info->sha256, cached, sizeof cached);
+        info->hashed = 1;
+        info->digest_cached = 1;
+        /* A .npy's vocabulary is hashed as it is read only when hashing
+         * is on: take it from the cache too, or hash it now (it is small
+         * beside the matrix). */
+        vg_digest_key_t vk;
+        if (info->layout == VG_LAYOUT_NPY && info->vocab_path[0] && !info->vocab_sha256[0] &&
+            vg_digest_key(info->vocab_path, &vk) == 0 &&
+            vg_digest_cache_get(&vk, info->vocab_sha256) != 0) {
+            uint64_t bytes;
+            if (vg_sha256_file(info->vocab_path, info->vocab_sha256, &bytes, err) != VG_OK) {
+                vg_vectors_free(*out);
+                *out = NULL;
+                return err->code;
+            }
+            vg_digest_cache_put(&vk, info->vocab_sha256);
+        }
+    } else if (keyed && info->hashed) {
+        /* Keyed on the identity seen before reading: if the file changed
+         * while it was read, the key no longer matches it and the entry
+         * is never found. */
+        vg_digest_cache_put(&key, info->sha256);
+        vg_digest_key_t vk;
+        if (info->layout == VG_LAYOUT_NPY && info->vocab_sha256[0] &&
+            vg_digest_key(info->vocab_path, &vk) == 0)
+            vg_digest_cache_put(&vk, info->vocab_sha256);
+    }
+    return VG_OK;
 }
 
 vg_status vg_vectors_load_buffer(const void *data, size_t size, const char *name,

@@ -329,4 +329,24 @@ VG_INTERNAL vg_status vg_vocab_read(const char *explicit_path, const char *vecto
                                     size_t max_words, int hash, vg_vocab *vc, vg_error *err);
 VG_INTERNAL void vg_vocab_free(vg_vocab *vc);
 
+/* ---- the digest cache (digest_cache.c) ---- */
+
+/* A regular file's identity: the key of its cached digest. */
+typedef struct vg_digest_key_t {
+    unsigned long long dev, ino, size;
+    long long mtime_ns, ctime_ns;
+} vg_digest_key_t;
+
+/* The identity of path; -1 when it is not a regular file (a pipe, a
+ * device: never cached) or cannot be stat'ed. */
+VG_INTERNAL int vg_digest_key(const char *path, vg_digest_key_t *key);
+
+/* The cached sha256 of a file with this identity into hex; -1 when there
+ * is no entry, or it is unreadable, or racy (file times too close to the
+ * moment it was cached to be trusted). */
+VG_INTERNAL int vg_digest_cache_get(const vg_digest_key_t *key, char hex[65]);
+
+/* Record hex for this identity (best effort, atomic by rename). */
+VG_INTERNAL void vg_digest_cache_put(const vg_digest_key_t *key, const char *hex);
+
 #endif /* VG_VECTORS_IMPL_H */

@@ -15,6 +15,9 @@ PY=/usr/bin/python3          # Debian's python3, which has numpy and scipy
 SHARED="$VG_ROOT/../shared/public-benchmarks"
 TMP=$(mktemp -d "${TMPDIR:-/tmp}/vge2e.XXXXXX")
 trap 'rm -rf "$TMP"' EXIT
+# The digest cache of vector files (vecgauge keeps it under
+# $XDG_CACHE_HOME/vecgauge): one per test script, never the user's.
+export XDG_CACHE_HOME="$TMP/cache"
 _n=0
 
 ok() { _n=$((_n + 1)); echo "ok $_n - $*"; }
