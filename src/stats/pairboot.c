@@ -192,16 +192,8 @@ vg_status vg_pairboot_design_new(const uint32_t *stratum, size_t n_strata, const
         d->max_iso = VG_MAX(d->max_iso, S->iso);
         d->max_cells = VG_MAX(d->max_cells, S->cells);
     }
-    vg_free(nr);
-    vg_free(nc);
-    vg_free(rl);
-    vg_free(cl);
-    vg_free(uses_r);
-    vg_free(uses_c);
-    vg_free(remap_r);
-    vg_free(remap_c);
     *out = d;
-    return VG_OK;
+    d = NULL;
 oom:
     vg_free(nr);
     vg_free(nc);
@@ -211,6 +203,7 @@ oom:
     vg_free(uses_c);
     vg_free(remap_r);
     vg_free(remap_c);
+    if (*out) return VG_OK;
     vg_pairboot_design_free(d);
     return vg_error_set(err, VG_ENOMEM, NULL, 0, "out of memory");
 }
