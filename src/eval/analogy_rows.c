@@ -75,7 +75,8 @@ static vg_status subset_rows(vg_results *r, size_t *cap, size_t set, size_t suit
             row.value = denom ? (double)right / (double)denom : NAN;
             double lo, hi;
             if (bk->sums) {
-                size_t defined = vg_stats_percentile_interval(all ? bk->all : bk->cov, B, opt->ci, &lo, &hi);
+                size_t defined =
+                    vg_stats_percentile_interval(all ? bk->all : bk->cov, B, opt->ci, &lo, &hi);
                 vg_row_add_interval(&row, lo, hi, "pair-bootstrap");
                 row.ci[row.n_ci - 1].replicates = defined;
             }
