@@ -77,14 +77,16 @@ STATS_O   = stats/rank.o stats/correlation.o stats/kendall.o stats/interval.o \
 EVAL_O    = eval/results.o eval/evaluate.o eval/similarity_rows.o eval/agreement.o \
             eval/analogy_rows.o
 COMPARE_O = compare/compare.o compare/compare_similarity.o compare/compare_analogy.o \
-            compare/paired_items.o compare/saved_run.o compare/saved_pair.o compare/merge.o \
-            compare/saved_results.o
+            compare/paired_items.o
 REPORT_O  = report/csvout.o report/summary_md.o report/summary_similarity.o \
             report/summary_analogy.o report/text_table.o report/intervals.o \
-            report/items_csv.o report/latex.o report/json_text.o report/run_json.o report/run_record.o
-REPORT_O += report/comparison_csv.o report/comparison_md.o report/comparison_json.o report/plot.o \
+            report/items_csv.o report/latex.o
+REPORT_O += report/comparison_csv.o report/comparison_md.o report/plot.o \
             report/plot_compare.o
-RUNDIR_O  = rundir/rundir.o rundir/outdir.o rundir/cleanup.o rundir/plots.o rundir/provenance.o
+RUNDIR_O  = rundir/rundir.o rundir/outdir.o rundir/cleanup.o rundir/plots.o rundir/provenance.o \
+            rundir/json_text.o rundir/run_json.o rundir/run_record.o rundir/saved_run.o \
+            rundir/saved_pair.o rundir/saved_results.o rundir/merge.o rundir/comparison_json.o \
+            rundir/compare_summary.o
 TRACK_O   = track/history.o track/select.o track/paths.o track/track.o track/track_report.o \
             track/plot_track.o
 CLI_O     = cli/main.o cli/util.o cli/run_output.o cli/cmd_score.o \

@@ -127,35 +127,6 @@ VG_API vg_status vg_report_items_csv(const vg_results *r, FILE *fp, const char *
 VG_API vg_status vg_report_table_tex(const vg_results *r, const vg_provenance *prov,
                                      FILE *fp, const char *path, vg_error *err);
 
-/* Write run.json (through jansson): tool version and git describe, UTC
- * time, the command line (text and argv) and working directory, every
- * option with its effective value, seed and bootstrap replicates, and for
- * every vector file and suite file its path, size, sha256 and what the
- * reader found (layout, rows, dims, duplicates, zero rows, ...). */
-VG_API vg_status vg_report_run_json(const vg_results *r, const vg_provenance *prov,
-                                    FILE *fp, const char *path, vg_error *err);
-
-/* What `vecgauge rerun` needs from a saved run.json. */
-typedef struct vg_run_record {
-    char *tool_version;
-    char *cwd;
-    char **argv;           /* argc entries; argv[0] is the program name */
-    char *data_dir;        /* options.data: the data directory read, or NULL */
-    size_t argc;
-    char **files;          /* every input file recorded (vectors and suites) */
-    char **sha256;         /* its recorded hash ("" when not hashed) */
-    size_t n_files;
-} vg_run_record;
-
-/* Read the parts of run.json that a rerun needs. VG_EFORMAT (with the
- * line and column jansson reports) for a file that is not JSON or lacks a
- * required key. On success *out owns a record to free with
- * vg_run_record_free. */
-VG_API vg_status vg_run_record_read(const char *path, vg_run_record **out, vg_error *err);
-
-/* NULL does nothing. */
-VG_API void vg_run_record_free(vg_run_record *rec);
-
 /* Flush and close fp, reporting a write error (disk full, ...) against
  * path. Always closes. */
 VG_API vg_status vg_report_close(FILE *fp, const char *path, vg_error *err);

@@ -55,13 +55,6 @@ VG_INTERNAL void vg_md_intervals(const vg_results *r, FILE *fp);
 VG_INTERNAL void vg_md_analogy(const vg_results *r, FILE *fp);
 
 /* ---- comparison and merge summaries (comparison_md.c) ------------------ */
-struct vg_saved_run;
-
-/* "## title", then one line per saved run: its directory, time (and with
- * settings, its seed and resamples) and vector sets. */
-VG_INTERNAL void vg_md_saved_runs(FILE *fp, const char *title,
-                                  const struct vg_saved_run *const *runs, size_t n, int settings);
-
 /* "## Provenance" of a directory made from saved runs: tool, when (the
  * line's label, e.g. "compared at"), command. */
 VG_INTERNAL void vg_md_short_provenance(FILE *fp, const vg_provenance *prov, const char *when);

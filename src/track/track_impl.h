@@ -8,6 +8,7 @@
 #include <stdint.h>
 
 #include "../common/internal.h"
+#include "vecgauge/rundir.h"
 #include "vecgauge/track.h"
 
 /* A run of the history the tracked run is compared with: (run, vectors)

@@ -13,7 +13,7 @@
 
 #include "../common/alloc.h"
 #include "../common/numfmt.h"
-#include "../report/json_impl.h"
+#include "json_impl.h"
 #include "../report/report_impl.h"
 #include "saved_impl.h"
 #include "vecgauge/compare.h"

@@ -5,7 +5,7 @@
 #include <string.h>
 
 #include "json_impl.h"
-#include "vecgauge/compare.h"
+#include "vecgauge/rundir.h"
 
 vg_status vg_report_compare_json(const vg_comparisons *c, const vg_saved_run *const *runs,
                                  size_t n, const vg_provenance *prov, FILE *fp, const char *path,

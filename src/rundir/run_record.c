@@ -5,7 +5,7 @@
 #include <string.h>
 
 #include "../common/alloc.h"
-#include "vecgauge/report.h"
+#include "vecgauge/rundir.h"
 
 void vg_run_record_free(vg_run_record *rec) {
     if (!rec) return;

@@ -10,7 +10,7 @@
 #include <string.h>
 
 #include "json_impl.h"
-#include "vecgauge/report.h"
+#include "vecgauge/rundir.h"
 
 static json_t *setting_value(const vg_setting *st) {
     char *end;

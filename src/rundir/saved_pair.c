@@ -8,7 +8,8 @@
 #include <string.h>
 
 #include "../common/alloc.h"
-#include "compare_impl.h"
+#include "../compare/compare_impl.h"
+#include "vecgauge/rundir.h"
 
 static long suite_in(const vg_saved_run *r, const char *id) {
     for (size_t k = 0; k < r->n_suites; k++)

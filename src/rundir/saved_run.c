@@ -15,7 +15,7 @@
 
 #include "../common/alloc.h"
 #include "../common/csvread.h"
-#include "compare_impl.h"
+#include "../compare/compare_impl.h"
 #include "saved_impl.h"
 
 /* Largest items.csv or scores.csv read (a sanity bound, not a promise). */

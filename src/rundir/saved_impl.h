@@ -8,7 +8,7 @@
 
 #include "../common/csvread.h"
 #include "../common/internal.h"
-#include "vecgauge/compare.h"
+#include "vecgauge/rundir.h"
 
 /* What a vg_saved_run keeps behind its public fields (r->priv_). */
 typedef struct saved_priv {
@@ -39,6 +39,11 @@ VG_INTERNAL long vg_saved_original_set(const vg_saved_run *r, const char *label)
  * suite without a 3cosadd row: 3CosAdd's accuracy over the questions
  * answered, from the items, without interval. */
 VG_INTERNAL void vg_saved_answered_accuracy(vg_saved_run *r, size_t b);
+
+/* "## title", then one line per saved run: its directory, time (and with
+ * settings, its seed and resamples) and vector sets (compare_summary.c). */
+VG_INTERNAL void vg_md_saved_runs(FILE *fp, const char *title, const vg_saved_run *const *runs,
+                                  size_t n, int settings);
 
 /* dir/name in a new string (vg_free), or NULL. */
 VG_INTERNAL char *vg_saved_path(const char *dir, const char *name);

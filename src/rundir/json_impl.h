@@ -7,7 +7,7 @@
 #include <jansson.h>
 
 #include "../common/internal.h"
-#include "vecgauge/report.h"
+#include "vecgauge/rundir.h"
 
 /* A new JSON string of s ("" for NULL), with '?' for bytes that are not
  * UTF-8; NULL only when out of memory (jansson then drops the key, and

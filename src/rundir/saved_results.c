@@ -11,7 +11,7 @@
 #include <string.h>
 
 #include "../common/alloc.h"
-#include "compare_impl.h"
+#include "../compare/compare_impl.h"
 #include "saved_impl.h"
 
 /* Suite k's words as items.csv writes them (word1, word2, word3,
